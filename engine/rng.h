@@ -1,0 +1,47 @@
+// Random streams for the simulation. Every simulated season owns disjoint blocks of one pcg64
+// sequence, one block per purpose, found by jumping ahead from the run's seed:
+//   block b = season * kPurposeCount + purpose;  rng = pcg64(seed);  rng.advance(b << 64)
+// so a season's numbers depend only on (seed, season, purpose), never on the thread that runs
+// it. Samplers here are our own: std:: distributions differ between standard libraries.
+#ifndef STANDFAST_ENGINE_RNG_H
+#define STANDFAST_ENGINE_RNG_H
+
+#include <cmath>
+#include <cstdint>
+#include <pcg_random.hpp>
+
+namespace standfast::engine {
+
+using Rng = pcg64;
+
+enum class Purpose : std::uint32_t {
+  kStrengths = 0,   // the season's true team strengths
+  kGames = 1,       // remaining regular-season games
+  kTiebreak = 2,    // draws and extra tiebreak games
+  kPostseason = 3,  // the bracket
+};
+inline constexpr std::uint64_t kPurposeCount = 4;
+
+// The stream of one purpose of one simulated season.
+Rng make_stream(std::uint64_t seed, std::uint64_t season, Purpose purpose);
+
+// Uniform on [0, 1) with 53 random bits.
+inline double uniform01(Rng& rng) { return static_cast<double>(rng() >> 11) * 0x1.0p-53; }
+
+// Uniform integer on [0, n), unbiased (pcg's rejection method). n > 0.
+inline std::uint64_t uniform_below(Rng& rng, std::uint64_t n) { return rng(n); }
+
+// Standard normal by the Marsaglia polar method (one value per call; the spare is dropped so a
+// draw consumes a fixed-for-the-seed, thread-independent amount of the stream).
+inline double standard_normal(Rng& rng) {
+  for (;;) {
+    const double u = 2.0 * uniform01(rng) - 1.0;
+    const double v = 2.0 * uniform01(rng) - 1.0;
+    const double s = u * u + v * v;
+    if (s > 0.0 && s < 1.0) return u * std::sqrt(-2.0 * std::log(s) / s);
+  }
+}
+
+}  // namespace standfast::engine
+
+#endif  // STANDFAST_ENGINE_RNG_H

@@ -1,0 +1,36 @@
+// The `standfast` command-line program: a thin layer over the libraries.
+#include <fmt/core.h>
+
+#include <CLI/CLI.hpp>
+#include <exception>
+
+#include "config/load.h"
+#include "tools/commands.h"
+
+int main(int argc, char** argv) {
+  using namespace standfast;
+  CLI::App app{
+      "standfast: Monte Carlo season and standings simulator.\n"
+      "Odds are model estimates under stated assumptions, not advice for wagering."};
+  app.require_subcommand(1);
+  tools::add_check_command(app);
+  tools::add_standings_command(app);
+  tools::add_fit_command(app);
+  tools::add_odds_command(app);
+  try {
+    app.parse(argc, argv);
+  } catch (const CLI::ParseError& e) {
+    const int code = app.exit(e);
+    return code == 0 ? 0 : 2;
+  } catch (const config::ConfigError& e) {
+    fmt::print(stderr, "{}\n", e.what());
+    return 2;
+  } catch (const tools::UsageError& e) {
+    fmt::print(stderr, "error: {}\n", e.what());
+    return 2;
+  } catch (const std::exception& e) {
+    fmt::print(stderr, "internal error: {}\n", e.what());
+    return 1;
+  }
+  return 0;
+}
