@@ -1,0 +1,109 @@
+// The compiled simulation plan: everything a simulated season needs, in flat arrays indexed by
+// team, parameter slot or remaining game, built once from the Season and the fitted ratings.
+// Nothing in the hot loop looks up a map, a string or a virtual function.
+#ifndef STANDFAST_ENGINE_PLAN_H
+#define STANDFAST_ENGINE_PLAN_H
+
+#include <cstdint>
+#include <string>
+#include <vector>
+
+#include "config/season.h"
+
+namespace standfast::models {
+struct LeagueRatings;
+}
+
+namespace standfast::engine {
+
+// How a game's outcome is drawn.
+enum class GameModel { kWeibull, kNegativeBinomial, kPoisson, kLog5 };
+
+// A team's parameter set. Slot t (t < teams) holds team t's fitted values; slot teams + t holds
+// its values after an override date, when it has one.
+struct SlotOverride {
+  bool has_runs_scored = false, has_runs_allowed = false, has_win_pct = false;
+  double offence = 1.0;  // runs scored / league mean (multiplier), when has_runs_scored
+  double defence = 1.0;  // runs allowed / league mean (multiplier), when has_runs_allowed
+  double win_pct = 0.5;  // when has_win_pct
+  double blend = 1.0;    // weight of the override against the drawn values
+};
+
+// One postseason round as the engine plays it.
+struct PlanRound {
+  std::string name;
+  int best_of = 1;
+  std::uint32_t higher_hosts = 0;  // bit g set: the higher seed hosts game g
+};
+
+// One bracket: a conference's, or the whole league's in a single bracket.
+struct PlanBracket {
+  int conference = -1;  // index into Season::groups; -1 for a single league-wide bracket
+  int qualifiers = 0;   // seeds 1..qualifiers
+  int division_winners = 0;
+  int at_large = 0;
+  int byes = 0;
+  bool winners_first = true;
+  int first_round = 0;  // index of the round this bracket starts in
+  int rounds = 0;       // rounds played inside the bracket
+  // Standard bracket order of seeds (1-based) padded to a power of two: positions 2i and 2i+1
+  // meet in the first round; seeds above `qualifiers` are empty slots (a bye for the opponent).
+  std::vector<int> order;
+  std::vector<int> teams;  // the teams that can qualify (every team of the conference)
+};
+
+class Plan {
+ public:
+  int teams = 0;
+  GameModel model = GameModel::kWeibull;
+  // Model parameters.
+  double league_mean = 4.5;  // runs per side per game
+  double shape = 1.83;       // Weibull shape (also the exponent that maps win_pct to runs)
+  double nb_size = 10.0;     // negative binomial size
+  double home_edge = 1.0;    // multiplier on the home side's runs (log5: on the home odds)
+  int regulation_innings = 9;
+  config::ExtraInningsRule extra_innings;
+
+  // Strengths: point estimates of the logs of the offence and defence multipliers, and the lower
+  // Cholesky factor (row-major, 2n x 2n, offences first) of their covariance.
+  std::vector<double> log_offence, log_defence;
+  std::vector<double> cholesky;
+  bool draw_strengths = false;
+  std::vector<double> win_pct;  // log5 strengths (per team), from overrides or ratings
+
+  // Overrides: slot teams + t of team t (empty when no team has overrides).
+  std::vector<SlotOverride> overrides;  // size teams (has_* all false when none)
+  int slots = 0;                        // teams, or 2 * teams with overrides
+
+  // Remaining games, in date order (undated last, in file order).
+  std::vector<std::uint16_t> home_slot, away_slot;
+  std::vector<std::uint16_t> home_team, away_team;
+  std::vector<float> home_factor, away_factor;  // venue factor (x home edge for the home side)
+  std::vector<config::DayNumber> day;           // INT32_MAX when not known
+  std::vector<int> game_index;                  // index into Season::games
+
+  // Teams and groups.
+  std::vector<std::string> team_ids;
+  std::vector<int> team_division, team_conference;  // indexes into Season::groups
+  std::vector<int> divisions, conferences;
+  std::vector<int> played_wins, played_losses;  // from the played games
+  int max_games = 0;                            // most games any team plays (wins histogram size)
+
+  // Postseason.
+  bool postseason = false;
+  std::vector<PlanBracket> brackets;
+  std::vector<PlanRound> rounds;
+  bool reseed = false;
+  bool final_between_conferences = false;  // two conference brackets feed a last round
+  int max_seed = 0;
+
+  std::size_t remaining_games() const { return home_team.size(); }
+};
+
+// Compiles the season and the fitted ratings. Throws std::invalid_argument naming the problem
+// when they do not fit together (team counts, a bracket that cannot be played).
+Plan compile_plan(const config::Season& season, const models::LeagueRatings& ratings);
+
+}  // namespace standfast::engine
+
+#endif  // STANDFAST_ENGINE_PLAN_H
