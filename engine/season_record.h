@@ -1,0 +1,116 @@
+// The results a ranking needs, as flat per-team integer arrays: wins, losses, runs, head-to-head
+// wins, records within the division and the conference, and the last-games windows that the
+// tiebreakers ask for. One SeasonRecord is built from the played games; the engine copies it at
+// the start of every simulated season and adds the simulated results. Copying a record into
+// another of the same league reuses its storage (one std::vector of int32), and add_result never
+// allocates.
+//
+// Games have a winner and a loser (a game is never left tied; extra innings or the league's
+// draw settle it). Results must be added in chronological order: the last-games windows are
+// ring buffers that keep each team's most recent results within the window's scope.
+#ifndef STANDFAST_ENGINE_SEASON_RECORD_H
+#define STANDFAST_ENGINE_SEASON_RECORD_H
+
+#include <cstdint>
+#include <span>
+#include <vector>
+
+#include "config/season.h"
+
+namespace standfast::engine {
+
+// A window of a team's most recent games: the last `games` games it played within `scope`
+// (kLeague: every game; kConference: games against teams of its own conference; kDivision:
+// games against teams of its own division).
+struct LastGamesWindow {
+  int games = 0;
+  config::TiebreakScope scope = config::TiebreakScope::kLeague;
+  friend bool operator==(const LastGamesWindow&, const LastGamesWindow&) = default;
+};
+
+// The distinct last-games windows the tiebreak rules use, in rule order. SeasonRecord and
+// Tiebreaker both build theirs with this function, so window k is the same in both.
+std::vector<LastGamesWindow> last_games_windows(const config::Tiebreakers& tiebreakers);
+
+class SeasonRecord {
+ public:
+  SeasonRecord() = default;
+
+  // An empty record for teams whose division and conference indexes are given (any integers;
+  // two teams share a division when the numbers are equal), with the given windows (games >= 1).
+  SeasonRecord(std::span<const int> division, std::span<const int> conference,
+               std::span<const LastGamesWindow> windows);
+
+  int team_count() const { return n_; }
+
+  // Sets every result to zero; the teams and windows stay. No allocation.
+  void clear();
+
+  // Adds one game: `winner` beat `loser`, scoring winner_runs to loser_runs. Call in
+  // chronological order (the last-games windows depend on it). No allocation.
+  void add_result(int winner, int loser, int winner_runs, int loser_runs);
+
+  int wins(int t) const { return at(kWins, t); }
+  int losses(int t) const { return at(kLosses, t); }
+  int games(int t) const { return wins(t) + losses(t); }
+  int runs_for(int t) const { return at(kRunsFor, t); }
+  int runs_against(int t) const { return at(kRunsAgainst, t); }
+  int run_differential(int t) const { return runs_for(t) - runs_against(t); }
+  int division_wins(int t) const { return at(kDivWins, t); }
+  int division_losses(int t) const { return at(kDivLosses, t); }
+  int conference_wins(int t) const { return at(kConfWins, t); }
+  int conference_losses(int t) const { return at(kConfLosses, t); }
+  int division_of(int t) const { return at(kDivision, t); }
+  int conference_of(int t) const { return at(kConference, t); }
+  // Wins of team i over team j.
+  int h2h_wins(int i, int j) const { return data_[h2h_ + static_cast<std::size_t>(i) * n_ + j]; }
+
+  int window_count() const { return static_cast<int>(windows_.size()); }
+  const LastGamesWindow& window(int k) const { return windows_[k]; }
+  // Index of the window with these games and scope, or -1.
+  int find_window(const LastGamesWindow& w) const;
+  // Wins and losses of team t over its last window(k).games games in window(k).scope (fewer when
+  // it has not played that many).
+  int last_wins(int k, int t) const { return data_[win_base_[k] + t]; }
+  int last_losses(int k, int t) const { return data_[win_base_[k] + n_ + t] - last_wins(k, t); }
+
+ private:
+  // Blocks of n int32 values in data_, in this order; then the n*n head-to-head matrix; then per
+  // window: wins[n], count[n], head[n], ring[n*games].
+  enum Block {
+    kDivision,
+    kConference,
+    kWins,
+    kLosses,
+    kRunsFor,
+    kRunsAgainst,
+    kDivWins,
+    kDivLosses,
+    kConfWins,
+    kConfLosses,
+    kBlockCount
+  };
+  int at(Block b, int t) const { return data_[static_cast<std::size_t>(b) * n_ + t]; }
+  int& at(Block b, int t) { return data_[static_cast<std::size_t>(b) * n_ + t]; }
+  void push_window(int k, int team, int won);
+
+  int n_ = 0;
+  std::size_t h2h_ = 0;  // offset of the head-to-head matrix
+  std::vector<LastGamesWindow> windows_;
+  std::vector<std::size_t> win_base_;  // offset of each window's blocks
+  std::vector<std::int32_t> data_;
+};
+
+// An empty record for the season's teams, with the windows its tiebreakers need.
+SeasonRecord make_record(const config::Season& season);
+
+// The indexes into season.games of the played games in chronological order: by date, file order
+// within a day. Games with an unknown date count as unplayed and are left out.
+std::vector<int> played_games_in_order(const config::Season& season);
+
+// The record of the season's played games (make_record plus every played game in order).
+SeasonRecord played_record(const config::Season& season);
+
+}  // namespace standfast::engine
+
+#endif  // STANDFAST_ENGINE_SEASON_RECORD_H
