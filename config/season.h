@@ -51,25 +51,25 @@ struct Team {
 struct Group {
   std::string id;
   std::string name;
-  int parent = -1;             // index into Season::groups, -1 for a conference
-  std::vector<int> children;   // indexes into Season::groups
-  std::vector<int> teams;      // indexes into Season::teams, in file order (leaf groups only)
+  int parent = -1;            // index into Season::groups, -1 for a conference
+  std::vector<int> children;  // indexes into Season::groups
+  std::vector<int> teams;     // indexes into Season::teams, in file order (leaf groups only)
   SourcePos pos;
 };
 
 // Who qualifies from one conference and how they are seeded.
 struct Qualifying {
-  int conference = -1;          // index into Season::groups
-  int division_winners = 0;     // how many division winners qualify (normally all divisions)
-  int at_large = 0;             // further berths by record
-  int byes = 0;                 // top seeds that skip the first round
-  bool winners_first = true;    // division winners are seeded above at-large teams
+  int conference = -1;        // index into Season::groups
+  int division_winners = 0;   // how many division winners qualify (normally all divisions)
+  int at_large = 0;           // further berths by record
+  int byes = 0;               // top seeds that skip the first round
+  bool winners_first = true;  // division winners are seeded above at-large teams
 };
 
 struct Round {
   std::string name;
-  int best_of = 1;                // odd
-  std::vector<bool> higher_hosts; // size best_of: true where the higher seed is at home
+  int best_of = 1;                 // odd
+  std::vector<bool> higher_hosts;  // size best_of: true where the higher seed is at home
   SourcePos pos;
 };
 
@@ -89,43 +89,43 @@ struct Postseason {
 };
 
 enum class TiebreakKind {
-  kHeadToHead,         // winning percentage in games among the tied teams
-  kDivisionRecord,     // winning percentage within the team's own division
-  kConferenceRecord,   // winning percentage within the team's own conference
-  kRunDifferential,    // runs scored minus runs allowed over the season
-  kLastGames,          // winning percentage over the last `games` games within `scope`
-  kDraw,               // a random draw
+  kHeadToHead,        // winning percentage in games among the tied teams
+  kDivisionRecord,    // winning percentage within the team's own division
+  kConferenceRecord,  // winning percentage within the team's own conference
+  kRunDifferential,   // runs scored minus runs allowed over the season
+  kLastGames,         // winning percentage over the last `games` games within `scope`
+  kDraw,              // a random draw
 };
 
 enum class TiebreakScope { kLeague, kConference, kDivision };
 
 struct TiebreakRule {
   TiebreakKind kind = TiebreakKind::kDraw;
-  int games = 0;                                // kLastGames only
+  int games = 0;                                 // kLastGames only
   TiebreakScope scope = TiebreakScope::kLeague;  // kLastGames only
   SourcePos pos;
 };
 
 struct Tiebreakers {
   std::vector<TiebreakRule> order;  // applied in order; a draw is implied after the last rule
-  bool extra_game = false;  // a two-team tie for a division title or the last berth is
-                            // settled by one extra game instead of the rules
+  bool extra_game = false;          // a two-team tie for a division title or the last berth is
+                                    // settled by one extra game instead of the rules
 };
 
 enum class ScoreFamily { kWeibull, kNegativeBinomial, kPoisson, kLog5 };
 
 struct LopsidedRule {
-  int margin = 0;        // runs scored while leading by more than this are down-weighted
-  double weight = 1.0;   // weight of those runs in the fit (0..1)
+  int margin = 0;       // runs scored while leading by more than this are down-weighted
+  double weight = 1.0;  // weight of those runs in the fit (0..1)
 };
 
 struct ModelSpec {
   ScoreFamily family = ScoreFamily::kWeibull;
-  std::optional<double> shape;      // fixed Weibull shape gamma; empty = fitted
-  std::optional<double> home_edge;  // fixed multiplier on the home side's runs; empty = fitted
-  double shrink_games = 20.0;       // prior weight toward the league mean, in games
+  std::optional<double> shape;           // fixed Weibull shape gamma; empty = fitted
+  std::optional<double> home_edge;       // fixed multiplier on the home side's runs; empty = fitted
+  double shrink_games = 20.0;            // prior weight toward the league mean, in games
   std::optional<LopsidedRule> lopsided;  // empty = off (the default)
-  bool strength_uncertainty = true;  // draw true strengths per simulated season
+  bool strength_uncertainty = true;      // draw true strengths per simulated season
   SourcePos pos;
 };
 
@@ -145,12 +145,14 @@ struct Game {
   std::optional<DayNumber> date;  // empty = not yet known (postponed)
   int home = -1;                  // index into Season::teams
   int away = -1;
-  int number = 1;                 // game of the day between the two clubs (doubleheaders)
+  int number = 1;  // game of the day between the two clubs (doubleheaders)
   bool played = false;
-  int home_runs = 0;              // valid when played
+  int home_runs = 0;  // valid when played
   int away_runs = 0;
-  int innings = 0;                // innings played; 0 = not stated (regulation assumed)
-  bool shortened = false;         // ended early by the officials (weather and the like)
+  int innings = 0;         // innings played; 0 = not stated (regulation assumed)
+  bool shortened = false;  // ended early by the officials (weather and the like)
+  bool postponed = false;  // not played, marked postponed or with no date; a date, if
+                           // any, is the make-up date
   SourcePos pos;
 };
 

@@ -1,0 +1,61 @@
+#include "config/suggest.h"
+
+#include <algorithm>
+#include <numeric>
+
+namespace standfast::config {
+
+int edit_distance(std::string_view a, std::string_view b) {
+  // Wagner-Fischer with one row.
+  std::vector<int> row(b.size() + 1);
+  std::iota(row.begin(), row.end(), 0);
+  for (std::size_t i = 1; i <= a.size(); ++i) {
+    int diagonal = row[0];
+    row[0] = static_cast<int>(i);
+    for (std::size_t j = 1; j <= b.size(); ++j) {
+      const int above = row[j];
+      const int cost = a[i - 1] == b[j - 1] ? 0 : 1;
+      row[j] = std::min({row[j] + 1, row[j - 1] + 1, diagonal + cost});
+      diagonal = above;
+    }
+  }
+  return row[b.size()];
+}
+
+namespace {
+
+std::string lower(std::string_view s) {
+  std::string out(s);
+  for (char& c : out) {
+    if (c >= 'A' && c <= 'Z') c = static_cast<char>(c + 32);
+  }
+  return out;
+}
+
+}  // namespace
+
+std::optional<std::string> closest_match(std::string_view word,
+                                         const std::vector<std::string>& candidates) {
+  if (word.size() > 64) return std::nullopt;  // junk, not a typo
+  const std::string w = lower(word);
+  const int limit = std::max(1, std::min(3, static_cast<int>(w.size()) / 3));
+  int best = limit + 1;
+  const std::string* found = nullptr;
+  for (const auto& c : candidates) {
+    if (c.size() > 64) continue;
+    const int d = edit_distance(w, lower(c));
+    if (d < best) {
+      best = d;
+      found = &c;
+    }
+  }
+  if (found == nullptr) return std::nullopt;
+  return *found;
+}
+
+std::string did_you_mean(std::string_view word, const std::vector<std::string>& candidates) {
+  const auto m = closest_match(word, candidates);
+  return m ? " (did you mean '" + *m + "'?)" : std::string();
+}
+
+}  // namespace standfast::config
