@@ -25,8 +25,9 @@ TEST_CASE("impossible or malformed dates are refused") {
 
 TEST_CASE("team_index finds ids") {
   Season s;
-  s.teams.push_back(Team{.id = "AAA"});
-  s.teams.push_back(Team{.id = "BBB"});
+  s.teams.resize(2);
+  s.teams[0].id = "AAA";
+  s.teams[1].id = "BBB";
   REQUIRE(s.team_index("BBB") == 1);
   REQUIRE(s.team_index("CCC") == -1);
 }
