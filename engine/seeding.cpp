@@ -12,13 +12,11 @@ int top_group(const config::Season& season, int g) {
   return g;
 }
 
-bool same_pct(const SeasonRecord& r, int a, int b) {
-  return compare_pct(r.wins(a), r.losses(a), r.wins(b), r.losses(b)) == 0;
-}
+bool same_pct(const std::int64_t* key, int a, int b) { return key[a] == key[b]; }
 
 // True when teams[i] and teams[i + 1] are tied and no other team of the list shares their
 // winning percentage: exactly two teams tied across the boundary after position i.
-bool two_team_tie_at(const SeasonRecord& r, const int* teams, int size, int i) {
+bool two_team_tie_at(const std::int64_t* r, const int* teams, int size, int i) {
   if (i < 0 || i + 1 >= size) return false;
   if (!same_pct(r, teams[i], teams[i + 1])) return false;
   if (i > 0 && same_pct(r, teams[i - 1], teams[i])) return false;
@@ -102,6 +100,7 @@ LeagueRanking Seeder::make_ranking() const {
   r.seeds.assign(total, 0);
   r.league_seeds.assign(single_bracket_ ? total : 0, 0);
   r.qualifying_winners.assign(conferences_.size(), 0);
+  r.keys.assign(team_count_, 0);
   r.work.assign(2 * static_cast<std::size_t>(team_count_) + division_offset_.size(), 0);
   return r;
 }
@@ -112,9 +111,14 @@ void Seeder::rank(const SeasonRecord& record, Rng& rng, TiebreakScratch& scratch
   const bool games = extra && tiebreaker_.extra_game();
   out.extra_games = 0;
 
-  // Every team by record.
-  for (int t = 0; t < n; ++t) out.league[t] = t;
-  tiebreaker_.rank(out.league, record, rng, scratch);
+  // Every team by record. The exact winning-percentage key of each team is computed once.
+  std::int64_t* key = out.keys.data();
+  for (int t = 0; t < n; ++t) {
+    out.league[t] = t;
+    key[t] = pct_key(record.wins(t), record.losses(t));
+  }
+  const std::span<const std::int64_t> keys(key, static_cast<std::size_t>(n));
+  tiebreaker_.rank(out.league, keys, record, rng, scratch);
 
   // Divisions: the league order filtered per division keeps it sorted by winning percentage;
   // only the tied runs are ordered again, among the teams of the division.
@@ -125,9 +129,8 @@ void Seeder::rank(const SeasonRecord& record, Rng& rng, TiebreakScratch& scratch
   for (int d = 0; d < divisions; ++d) {
     int* seg = out.division_teams.data() + division_offset_[d];
     const int size = division_offset_[d + 1] - division_offset_[d];
-    tiebreaker_.break_runs({seg, static_cast<std::size_t>(size)}, record, rng, scratch);
-    if (games && two_team_tie_at(record, seg, size, 0))
-      settle_by_game(seg, 0, extra, out.extra_games);
+    tiebreaker_.break_runs({seg, static_cast<std::size_t>(size)}, keys, record, rng, scratch);
+    if (games && two_team_tie_at(key, seg, size, 0)) settle_by_game(seg, 0, extra, out.extra_games);
   }
 
   // Conference seeds.
@@ -146,25 +149,25 @@ void Seeder::rank(const SeasonRecord& record, Rng& rng, TiebreakScratch& scratch
     for (int i = conf.divisions_begin; i < conf.divisions_end; ++i) {
       pool[nwin++] = out.division_winner(conference_divisions_[i]);
     }
-    tiebreaker_.rank({pool, static_cast<std::size_t>(nwin)}, record, rng, scratch);
+    tiebreaker_.rank({pool, static_cast<std::size_t>(nwin)}, keys, record, rng, scratch);
     std::copy(pool, pool + conf.division_winners, seeds);
     for (int i = 0; i < conf.division_winners; ++i) qualified_winner[pool[i]] = 1;
 
-    // The at-large pool: the rest of the conference, in league order.
+    // The at-large pool: the rest of the conference, in league order (branch-free filter).
     int npool = 0;
     for (int t : out.league) {
-      if (team_conference_[t] != static_cast<int>(c)) continue;
-      if (qualified_winner[t]) continue;
-      pool[npool++] = t;
+      pool[npool] = t;
+      npool +=
+          static_cast<int>(team_conference_[t] == static_cast<int>(c)) & (1 - qualified_winner[t]);
     }
-    tiebreaker_.break_runs({pool, static_cast<std::size_t>(npool)}, record, rng, scratch);
+    tiebreaker_.break_runs({pool, static_cast<std::size_t>(npool)}, keys, record, rng, scratch);
     const int a = conf.at_large;
-    if (games && a > 0 && two_team_tie_at(record, pool, npool, a - 1)) {
+    if (games && a > 0 && two_team_tie_at(key, pool, npool, a - 1)) {
       settle_by_game(pool, a - 1, extra, out.extra_games);
     }
     std::copy(pool, pool + a, seeds + conf.division_winners);
     if (!conf.winners_first) {
-      tiebreaker_.rank({seeds, static_cast<std::size_t>(nseeds)}, record, rng, scratch);
+      tiebreaker_.rank({seeds, static_cast<std::size_t>(nseeds)}, keys, record, rng, scratch);
     }
   }
 
@@ -188,8 +191,8 @@ void Seeder::rank(const SeasonRecord& record, Rng& rng, TiebreakScratch& scratch
       }
     }
     int* ls = out.league_seeds.data();
-    tiebreaker_.rank({ls, static_cast<std::size_t>(nw)}, record, rng, scratch);
-    tiebreaker_.rank({ls + nw, static_cast<std::size_t>(na - nw)}, record, rng, scratch);
+    tiebreaker_.rank({ls, static_cast<std::size_t>(nw)}, keys, record, rng, scratch);
+    tiebreaker_.rank({ls + nw, static_cast<std::size_t>(na - nw)}, keys, record, rng, scratch);
   }
 }
 

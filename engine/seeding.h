@@ -24,6 +24,7 @@
 #ifndef STANDFAST_ENGINE_SEEDING_H
 #define STANDFAST_ENGINE_SEEDING_H
 
+#include <cstdint>
 #include <span>
 #include <vector>
 
@@ -52,6 +53,7 @@ struct LeagueRanking {
   std::vector<int> league_seeds;        // single bracket only: every qualifier, in seed order
   std::vector<int> qualifying_winners;  // per conference: how many of its seeds won a division
   int extra_games = 0;                  // extra games played in this ranking
+  std::vector<std::int64_t> keys;       // per team: pct_key of its record
   std::vector<int> work;                // working space of the Seeder
 
   std::span<const int> division(int d) const {

@@ -14,17 +14,17 @@ int compare_pct(std::int64_t w1, std::int64_t l1, std::int64_t w2, std::int64_t 
   return (lhs > rhs) - (lhs < rhs);
 }
 
-std::int64_t pct_key(int wins, int losses) {
-  const std::int64_t g = static_cast<std::int64_t>(wins) + losses;
-  if (g == 0) return std::int64_t{1} << 31;
-  return (static_cast<std::int64_t>(wins) << 32) / g;
-}
-
 TiebreakScratch::TiebreakScratch(int team_count) {
+  if (team_count >= (1 << 20)) {
+    throw std::invalid_argument("TiebreakScratch: " + std::to_string(team_count) +
+                                " teams; at most 1048575");
+  }
   const auto n = static_cast<std::size_t>(team_count < 0 ? 0 : team_count);
   num_.assign(n, 0);
   den_.assign(n, 1);
   key_.assign(n, 0);
+  comp_.assign(n + 8, 0);
+  team_.assign(n, 0);
 }
 
 Tiebreaker::Tiebreaker(const config::Tiebreakers& tiebreakers)
@@ -67,7 +67,7 @@ inline void set_pct(std::int64_t& num, std::int64_t& den, std::int64_t w, std::i
 }
 
 void check_size(std::size_t k, const std::vector<std::int64_t>& tmp) {
-  if (k > tmp.size()) {
+  if (k > tmp.size()) [[unlikely]] {
     throw std::invalid_argument("Tiebreaker: " + std::to_string(k) +
                                 " teams given, scratch sized for " + std::to_string(tmp.size()));
   }
@@ -183,23 +183,49 @@ void Tiebreaker::break_runs(std::span<int> teams, const SeasonRecord& record, Rn
   }
 }
 
-void Tiebreaker::rank(std::span<int> teams, const SeasonRecord& record, Rng& rng,
-                      TiebreakScratch& scratch) const {
-  check_size(teams.size(), scratch.key_);
-  const int k = static_cast<int>(teams.size());
-  int* t = teams.data();
+void Tiebreaker::sort_and_break(int* t, int k, const SeasonRecord& record, Rng& rng,
+                                TiebreakScratch& scratch) const {
   std::int64_t* key = scratch.key_.data();
-  // Stable insertion sort by the exact winning-percentage key, best first.
-  for (int i = 0; i < k; ++i) {
-    const int team = t[i];
-    const std::int64_t kv = pct_key(record.wins(team), record.losses(team));
-    int j = i;
-    for (; j > 0 && kv > key[j - 1]; --j) {
-      t[j] = t[j - 1];
-      key[j] = key[j - 1];
+  if (k <= 12) {
+    // Stable insertion sort, best key first.
+    for (int i = 1; i < k; ++i) {
+      const int team = t[i];
+      const std::int64_t kv = key[i];
+      int j = i;
+      for (; j > 0 && kv > key[j - 1]; --j) {
+        t[j] = t[j - 1];
+        key[j] = key[j - 1];
+      }
+      t[j] = team;
+      key[j] = kv;
     }
-    t[j] = team;
-    key[j] = kv;
+  } else {
+    // Stable sort by counting: the place of position p is the number of positions whose
+    // (key, earlier position first) comes before it. Branch-free; keys are below 2^33 and
+    // positions below 2^20 (check_size), so the composite fits in 64 bits.
+    std::int64_t* comp = scratch.comp_.data();
+    std::int64_t* placed_key = scratch.num_.data();  // free until the runs are resolved
+    int* placed = scratch.team_.data();
+    for (int p = 0; p < k; ++p) comp[p] = (key[p] << 20) | (0xFFFFF - p);
+    // Padding up to a multiple of 8 with values below every composite lets the inner loop run
+    // in fixed blocks of 8 (which the compiler vectorises).
+    const int k8 = (k + 7) & ~7;
+    for (int p = k; p < k8; ++p) comp[p] = -1;
+    for (int p = 0; p < k; ++p) {
+      const std::int64_t c = comp[p];
+      int place = 0;
+      for (int q = 0; q < k8; q += 8) {
+        int block = 0;
+        for (int u = 0; u < 8; ++u) block += comp[q + u] > c;
+        place += block;
+      }
+      placed[place] = t[p];
+      placed_key[place] = key[p];
+    }
+    for (int p = 0; p < k; ++p) {
+      t[p] = placed[p];
+      key[p] = placed_key[p];
+    }
   }
   for (int i = 0; i < k;) {
     int j = i + 1;
@@ -209,6 +235,40 @@ void Tiebreaker::rank(std::span<int> teams, const SeasonRecord& record, Rng& rng
     }
     i = j;
   }
+}
+
+void Tiebreaker::rank(std::span<int> teams, const SeasonRecord& record, Rng& rng,
+                      TiebreakScratch& scratch) const {
+  check_size(teams.size(), scratch.key_);
+  const int k = static_cast<int>(teams.size());
+  for (int p = 0; p < k; ++p) {
+    scratch.key_[p] = pct_key(record.wins(teams[p]), record.losses(teams[p]));
+  }
+  sort_and_break(teams.data(), k, record, rng, scratch);
+}
+
+void Tiebreaker::break_runs(std::span<int> teams, std::span<const std::int64_t> key,
+                            const SeasonRecord& record, Rng& rng, TiebreakScratch& scratch) const {
+  check_size(teams.size(), scratch.key_);
+  const int k = static_cast<int>(teams.size());
+  int* t = teams.data();
+  for (int i = 0; i < k;) {
+    const std::int64_t ki = key[t[i]];
+    int j = i + 1;
+    while (j < k && key[t[j]] == ki) ++j;
+    if (j - i >= 2) {
+      resolve(t + i, j - i, 0, record, rng, scratch.num_.data() + i, scratch.den_.data() + i);
+    }
+    i = j;
+  }
+}
+
+void Tiebreaker::rank(std::span<int> teams, std::span<const std::int64_t> key,
+                      const SeasonRecord& record, Rng& rng, TiebreakScratch& scratch) const {
+  check_size(teams.size(), scratch.key_);
+  const int k = static_cast<int>(teams.size());
+  for (int p = 0; p < k; ++p) scratch.key_[p] = key[teams[p]];
+  sort_and_break(teams.data(), k, record, rng, scratch);
 }
 
 }  // namespace standfast::engine

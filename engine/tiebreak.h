@@ -43,7 +43,11 @@ int compare_pct(std::int64_t w1, std::int64_t l1, std::int64_t w2, std::int64_t 
 // the percentages are equal, for records of fewer than 65536 games: floor(w * 2^32 / (w+l)).
 // (Two different fractions with denominators below 2^16 differ by more than 2^-32, so their keys
 // differ.) No games gives the key of .500.
-std::int64_t pct_key(int wins, int losses);
+inline std::int64_t pct_key(int wins, int losses) {
+  const std::int64_t g = static_cast<std::int64_t>(wins) + losses;
+  if (g == 0) return std::int64_t{1} << 31;
+  return (static_cast<std::int64_t>(wins) << 32) / g;
+}
 
 // Per-thread working space for the procedure, sized for a league of `team_count` teams.
 class TiebreakScratch {
@@ -53,9 +57,11 @@ class TiebreakScratch {
 
  private:
   friend class Tiebreaker;
-  std::vector<std::int64_t> num_;  // per position: numerator of the rule's value
-  std::vector<std::int64_t> den_;  // per position: denominator (> 0)
-  std::vector<std::int64_t> key_;  // per position: winning-percentage key while sorting
+  std::vector<std::int64_t> num_;   // per position: numerator of the rule's value
+  std::vector<std::int64_t> den_;   // per position: denominator (> 0)
+  std::vector<std::int64_t> key_;   // per position: winning-percentage key while sorting
+  std::vector<std::int64_t> comp_;  // per position: key and position, for the counting sort
+  std::vector<int> team_;           // per place: team, for the counting sort
 };
 
 class Tiebreaker {
@@ -84,6 +90,14 @@ class Tiebreaker {
   void rank(std::span<int> teams, const SeasonRecord& record, Rng& rng,
             TiebreakScratch& scratch) const;
 
+  // The same two, with the winning-percentage key of every team given: key[t] = pct_key of team
+  // t's record (indexed by team, computed once per record). Saves recomputing the keys when one
+  // record is ranked in several ways (league, divisions, conferences).
+  void break_runs(std::span<int> teams, std::span<const std::int64_t> key,
+                  const SeasonRecord& record, Rng& rng, TiebreakScratch& scratch) const;
+  void rank(std::span<int> teams, std::span<const std::int64_t> key, const SeasonRecord& record,
+            Rng& rng, TiebreakScratch& scratch) const;
+
   // The extra-game rule. With Tiebreakers::extra_game = true, a tie of exactly two teams for a
   // division title, or for the last postseason berth, is settled by one extra game that the
   // engine plays (the team the procedure ranks first is at home). Ties of three or more teams,
@@ -96,6 +110,9 @@ class Tiebreaker {
   const std::vector<config::TiebreakRule>& rules() const { return rules_; }
 
  private:
+  // Sorts teams[0..k) by scratch.key_ (by position), best first and stable, then resolves runs.
+  void sort_and_break(int* t, int k, const SeasonRecord& record, Rng& rng,
+                      TiebreakScratch& scratch) const;
   // Orders teams[0..k) (all tied), starting at rule `first`; num/den are scratch for k values.
   void resolve(int* teams, int k, std::size_t first, const SeasonRecord& record, Rng& rng,
                std::int64_t* num, std::int64_t* den) const;
