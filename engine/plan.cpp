@@ -1,13 +1,286 @@
 #include "engine/plan.h"
 
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <numeric>
 #include <stdexcept>
+#include <string>
+
+#include "engine/postseason.h"
+#include "models/ratings.h"
 
 namespace standfast::engine {
 
-Plan compile_plan(const config::Season& season, const models::LeagueRatings& /*ratings*/) {
+namespace {
+
+[[noreturn]] void fail(const std::string& what) {
+  throw std::invalid_argument("compile_plan: " + what);
+}
+
+int next_pow2(int q) {
+  int p = 1;
+  while (p < q) p *= 2;
+  return p;
+}
+
+int log2i(int p) {
+  int r = 0;
+  while ((1 << r) < p) ++r;
+  return r;
+}
+
+GameModel game_model(config::ScoreFamily f) {
+  switch (f) {
+    case config::ScoreFamily::kWeibull:
+      return GameModel::kWeibull;
+    case config::ScoreFamily::kNegativeBinomial:
+      return GameModel::kNegativeBinomial;
+    case config::ScoreFamily::kPoisson:
+      return GameModel::kPoisson;
+    case config::ScoreFamily::kLog5:
+      return GameModel::kLog5;
+  }
+  return GameModel::kWeibull;
+}
+
+void compile_postseason(const config::Season& season, Plan& plan) {
+  const auto& ps = season.postseason;
+  plan.postseason = ps.enabled && !ps.rounds.empty() && !ps.qualifying.empty();
+  if (!plan.postseason) return;
+  plan.reseed = ps.reseed;
+  for (const auto& r : ps.rounds) {
+    PlanRound pr;
+    pr.name = r.name;
+    pr.best_of = r.best_of;
+    if (r.best_of < 1 || r.best_of % 2 == 0)
+      fail("round '" + r.name + "': best_of must be odd and >= 1, got " +
+           std::to_string(r.best_of));
+    for (std::size_t g = 0; g < r.higher_hosts.size() && g < 32; ++g)
+      if (r.higher_hosts[g]) pr.higher_hosts |= 1u << g;
+    if (r.higher_hosts.empty())  // not stated: alternate, higher seed first
+      for (int g = 0; g < r.best_of && g < 32; g += 2) pr.higher_hosts |= 1u << g;
+    plan.rounds.push_back(pr);
+  }
+  const int total_rounds = static_cast<int>(plan.rounds.size());
+  auto make_bracket = [&](int q, int byes, int rounds_available, const std::string& where) {
+    PlanBracket b;
+    b.qualifiers = q;
+    const int p = next_pow2(q);
+    b.rounds = log2i(p);
+    if (p - q != byes)
+      fail(where + ": " + std::to_string(q) + " qualifiers with " + std::to_string(byes) +
+           " byes cannot fill a bracket (needs " + std::to_string(p - q) + " byes)");
+    if (b.rounds > rounds_available)
+      fail(where + ": " + std::to_string(q) + " qualifiers need " + std::to_string(b.rounds) +
+           " rounds, only " + std::to_string(rounds_available) + " configured");
+    b.byes = byes;
+    b.order = standard_bracket_order(p);
+    b.first_round = rounds_available - b.rounds;
+    return b;
+  };
+  if (ps.format == config::BracketFormat::kSingleBracket) {
+    int q = 0, byes = 0, winners = 0, at_large = 0;
+    for (const auto& c : ps.qualifying) {
+      q += c.division_winners + c.at_large;
+      byes += c.byes;
+      winners += c.division_winners;
+      at_large += c.at_large;
+    }
+    PlanBracket b = make_bracket(q, byes, total_rounds, "single bracket");
+    b.division_winners = winners;
+    b.at_large = at_large;
+    b.winners_first = ps.qualifying.front().winners_first;
+    plan.brackets.push_back(b);
+    plan.max_seed = q;
+    return;
+  }
+  const int conferences = static_cast<int>(ps.qualifying.size());
+  int final_rounds = 0;
+  if (conferences > 1) {
+    plan.final_stage = true;
+    PlanBracket f;
+    const int p = next_pow2(conferences);
+    f.qualifiers = conferences;
+    f.rounds = log2i(p);
+    f.byes = p - conferences;
+    f.order = standard_bracket_order(p);
+    f.first_round = total_rounds - f.rounds;
+    if (f.first_round < 0) fail("not enough rounds for a final between the conferences");
+    final_rounds = f.rounds;
+    plan.final_bracket = f;
+  }
+  for (int i = 0; i < conferences; ++i) {
+    const auto& c = ps.qualifying[static_cast<std::size_t>(i)];
+    std::string where = "conference";
+    if (c.conference >= 0 && c.conference < static_cast<int>(season.groups.size()))
+      where += " '" + season.groups[static_cast<std::size_t>(c.conference)].id + "'";
+    PlanBracket b = make_bracket(c.division_winners + c.at_large, c.byes,
+                                 total_rounds - final_rounds, where);
+    b.conference = c.conference;
+    const auto it = std::find(season.conferences.begin(), season.conferences.end(), c.conference);
+    b.conference_position =
+        it == season.conferences.end() ? i : static_cast<int>(it - season.conferences.begin());
+    b.division_winners = c.division_winners;
+    b.at_large = c.at_large;
+    b.winners_first = c.winners_first;
+    plan.max_seed = std::max(plan.max_seed, b.qualifiers);
+    plan.brackets.push_back(b);
+  }
+}
+
+}  // namespace
+
+Plan compile_plan(const config::Season& season, const models::LeagueRatings& ratings) {
   Plan plan;
-  plan.teams = static_cast<int>(season.teams.size());
-  throw std::logic_error("compile_plan: not built yet");
+  const int n = static_cast<int>(season.teams.size());
+  if (n < 2) fail("a league needs at least two teams, got " + std::to_string(n));
+  if (n > 30000) fail("too many teams: " + std::to_string(n));
+  if (static_cast<int>(ratings.teams.size()) != n)
+    fail("ratings for " + std::to_string(ratings.teams.size()) + " teams, season has " +
+         std::to_string(n));
+  plan.teams = n;
+  plan.model = game_model(ratings.family);
+  plan.league_mean = ratings.league_mean;
+  plan.home_edge = ratings.home_edge;
+  if (plan.model == GameModel::kWeibull) plan.shape = ratings.shape;
+  if (plan.model == GameModel::kNegativeBinomial) plan.nb_size = ratings.shape;
+  if (season.model.shape && plan.model != GameModel::kWeibull) plan.shape = *season.model.shape;
+  if (!(plan.league_mean > 0) || !std::isfinite(plan.league_mean))
+    fail("league mean must be finite and > 0, got " + std::to_string(plan.league_mean));
+  if (!(plan.home_edge > 0) || !std::isfinite(plan.home_edge))
+    fail("home edge must be finite and > 0, got " + std::to_string(plan.home_edge));
+  if (!(plan.shape > 0) || !std::isfinite(plan.shape))
+    fail("shape must be finite and > 0, got " + std::to_string(plan.shape));
+  plan.regulation_innings = season.league.regulation_innings;
+  plan.extra_innings = season.league.extra_innings;
+
+  // Strengths.
+  const auto un = static_cast<std::size_t>(n);
+  plan.log_offence.resize(un);
+  plan.log_defence.resize(un);
+  bool any_se = false;
+  for (std::size_t t = 0; t < un; ++t) {
+    const auto& r = ratings.teams[t];
+    if (!(r.offence > 0) || !(r.defence > 0))
+      fail("team '" + season.teams[t].id + "': offence and defence must be > 0");
+    plan.log_offence[t] = std::log(r.offence);
+    plan.log_defence[t] = std::log(r.defence);
+    any_se = any_se || r.log_offence_se > 0 || r.log_defence_se > 0;
+  }
+  if (season.model.strength_uncertainty && plan.model != GameModel::kLog5) {
+    if (ratings.cholesky.size() == 4 * un * un) {
+      plan.cholesky = ratings.cholesky;
+      plan.draw_strengths =
+          std::any_of(plan.cholesky.begin(), plan.cholesky.end(), [](double v) { return v != 0; });
+    } else if (any_se) {  // no covariance: independent draws from the standard errors
+      plan.cholesky.assign(4 * un * un, 0.0);
+      for (std::size_t t = 0; t < un; ++t) {
+        plan.cholesky[t * 2 * un + t] = ratings.teams[t].log_offence_se;
+        plan.cholesky[(un + t) * 2 * un + un + t] = ratings.teams[t].log_defence_se;
+      }
+      plan.draw_strengths = true;
+    }
+  }
+  // Log5 strengths: the Pythagorean expectation of the fitted runs against an average side.
+  plan.win_pct.resize(un);
+  for (std::size_t t = 0; t < un; ++t) {
+    const double rs = std::pow(ratings.teams[t].offence, plan.shape);
+    const double ra = std::pow(ratings.teams[t].defence, plan.shape);
+    plan.win_pct[t] = rs / (rs + ra);
+  }
+
+  // Overrides.
+  plan.overrides.assign(un, SlotOverride{});
+  std::vector<std::optional<config::DayNumber>> from(un);
+  std::vector<bool> has(un, false);
+  for (const auto& o : season.overrides) {
+    if (o.team < 0 || o.team >= n) fail("override for team index " + std::to_string(o.team));
+    const auto t = static_cast<std::size_t>(o.team);
+    SlotOverride& s = plan.overrides[t];
+    if (o.runs_scored) {
+      s.has_runs_scored = true;
+      s.offence = *o.runs_scored / plan.league_mean;
+    }
+    if (o.runs_allowed) {
+      s.has_runs_allowed = true;
+      s.defence = *o.runs_allowed / plan.league_mean;
+    }
+    if (o.win_pct) {
+      s.has_win_pct = true;
+      s.win_pct = *o.win_pct;
+    }
+    s.blend = o.blend;
+    from[t] = o.from;
+    has[t] = true;
+  }
+  const bool any_override = std::any_of(has.begin(), has.end(), [](bool b) { return b; });
+  plan.slots = any_override ? 2 * n : n;
+  if (plan.model == GameModel::kLog5)
+    for (std::size_t t = 0; t < un; ++t)
+      if (!plan.overrides[t].has_win_pct && has[t])
+        fail("team '" + season.teams[t].id + "': the log5 model needs a win_pct override");
+
+  // Teams and groups.
+  for (const auto& t : season.teams) {
+    plan.team_ids.push_back(t.id);
+    plan.team_division.push_back(t.division);
+    plan.team_conference.push_back(t.conference);
+    plan.run_factor.push_back(t.run_factor);
+  }
+  plan.divisions = season.divisions;
+  plan.conferences = season.conferences;
+
+  // Remaining games in date order (undated last, file order within a day).
+  std::vector<int> order;
+  std::vector<int> games(un, 0);
+  plan.played_wins.assign(un, 0);
+  plan.played_losses.assign(un, 0);
+  for (std::size_t i = 0; i < season.games.size(); ++i) {
+    const auto& g = season.games[i];
+    if (g.home < 0 || g.home >= n || g.away < 0 || g.away >= n || g.home == g.away)
+      fail("game " + std::to_string(i) + ": bad team indexes");
+    ++games[static_cast<std::size_t>(g.home)];
+    ++games[static_cast<std::size_t>(g.away)];
+    // A played game with no date is left out of the record (engine/season_record.h); it is
+    // treated as still to play.
+    if (g.played && g.date) {
+      const bool home_won = g.home_runs > g.away_runs;
+      ++(home_won ? plan.played_wins : plan.played_losses)[static_cast<std::size_t>(g.home)];
+      ++(home_won ? plan.played_losses : plan.played_wins)[static_cast<std::size_t>(g.away)];
+      continue;
+    }
+    order.push_back(static_cast<int>(i));
+  }
+  plan.max_games = *std::max_element(games.begin(), games.end());
+  constexpr auto UNDATED = std::numeric_limits<config::DayNumber>::max();
+  auto day_of = [&](int i) {
+    const auto& d = season.games[static_cast<std::size_t>(i)].date;
+    return d ? *d : UNDATED;
+  };
+  std::stable_sort(order.begin(), order.end(),
+                   [&](int a, int b) { return day_of(a) < day_of(b); });
+  for (int i : order) {
+    const auto& g = season.games[static_cast<std::size_t>(i)];
+    const config::DayNumber day = day_of(i);
+    auto slot = [&](int team) {
+      const auto t = static_cast<std::size_t>(team);
+      const bool over = has[t] && (!from[t] || day >= *from[t]);
+      return static_cast<std::uint16_t>(over ? team + n : team);
+    };
+    plan.home_team.push_back(static_cast<std::uint16_t>(g.home));
+    plan.away_team.push_back(static_cast<std::uint16_t>(g.away));
+    plan.home_slot.push_back(slot(g.home));
+    plan.away_slot.push_back(slot(g.away));
+    const double rf = season.teams[static_cast<std::size_t>(g.home)].run_factor;
+    plan.home_factor.push_back(static_cast<float>(rf * plan.home_edge));
+    plan.away_factor.push_back(static_cast<float>(rf));
+    plan.day.push_back(day);
+    plan.game_index.push_back(i);
+  }
+
+  compile_postseason(season, plan);
+  return plan;
 }
 
 }  // namespace standfast::engine

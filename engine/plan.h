@@ -44,12 +44,12 @@ struct PlanBracket {
   int at_large = 0;
   int byes = 0;
   bool winners_first = true;
-  int first_round = 0;  // index of the round this bracket starts in
+  int conference_position = -1;  // position in Season::conferences (-1: single bracket)
+  int first_round = 0;           // index of the round this bracket starts in
   int rounds = 0;       // rounds played inside the bracket
   // Standard bracket order of seeds (1-based) padded to a power of two: positions 2i and 2i+1
   // meet in the first round; seeds above `qualifiers` are empty slots (a bye for the opponent).
   std::vector<int> order;
-  std::vector<int> teams;  // the teams that can qualify (every team of the conference)
 };
 
 class Plan {
@@ -86,6 +86,7 @@ class Plan {
   std::vector<std::string> team_ids;
   std::vector<int> team_division, team_conference;  // indexes into Season::groups
   std::vector<int> divisions, conferences;
+  std::vector<double> run_factor;  // venue run factor of each team's home venue
   std::vector<int> played_wins, played_losses;  // from the played games
   int max_games = 0;                            // most games any team plays (wins histogram size)
 
@@ -94,7 +95,10 @@ class Plan {
   std::vector<PlanBracket> brackets;
   std::vector<PlanRound> rounds;
   bool reseed = false;
-  bool final_between_conferences = false;  // two conference brackets feed a last round
+  // With conference brackets and more than one conference, the conference winners meet in a
+  // final stage: a bracket (standard order) seeded by regular-season record, in the last rounds.
+  bool final_stage = false;
+  PlanBracket final_bracket;
   int max_seed = 0;
 
   std::size_t remaining_games() const { return home_team.size(); }

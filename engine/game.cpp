@@ -1,0 +1,62 @@
+#include "engine/game.h"
+
+namespace standfast::engine {
+
+ExtraInnings::ExtraInnings(int regulation_innings, const config::ExtraInningsRule& rule)
+    : regulation_(regulation_innings > 0 ? regulation_innings : 9),
+      max_innings_(rule.max_innings) {
+  per_inning_ = (1.0 - RUN_CONTINUATION) / regulation_;
+  if (rule.runner_on_second) per_inning_ *= RUNNER_FACTOR;
+}
+
+void ExtraInnings::play(Rng& rng, double home_mean, double away_mean, GameResult& r,
+                        bool cap_innings) const {
+  r.extra = true;
+  const double s_home = scoring_chance(home_mean);
+  const double s_away = scoring_chance(away_mean);
+  for (int inning = regulation_ + 1;; ++inning) {
+    if (cap_innings && max_innings_ > 0 && inning > max_innings_) {
+      r.drawn = true;
+      r.home_won = (rng() >> 63) != 0;
+      return;
+    }
+    const int away = half_inning(rng, s_away, 1 << 30);
+    const int home = half_inning(rng, s_home, away + 1);
+    r.away_runs += away;
+    r.home_runs += home;
+    if (home != away) {
+      r.home_won = home > away;
+      return;
+    }
+  }
+}
+
+namespace {
+CountFamily count_family(GameModel m) {
+  return m == GameModel::kPoisson ? CountFamily::kPoisson : CountFamily::kNegativeBinomial;
+}
+}  // namespace
+
+GameEngine::GameEngine(const Plan& plan)
+    : model_(plan.model), extra_(plan.regulation_innings, plan.extra_innings) {
+  if (model_ == GameModel::kWeibull) weibull_ = WeibullTable(plan.shape);
+  if (model_ == GameModel::kNegativeBinomial || model_ == GameModel::kPoisson)
+    counts_ = CountTable(count_family(model_), plan.nb_size);
+}
+
+GameResult GameEngine::play(Rng& rng, double home_mean, double away_mean, double home_odds,
+                            double away_odds, bool cap) const {
+  switch (model_) {
+    case GameModel::kWeibull:
+      return play_scores<GameModel::kWeibull>(rng, home_mean, away_mean, cap);
+    case GameModel::kNegativeBinomial:
+      return play_scores<GameModel::kNegativeBinomial>(rng, home_mean, away_mean, cap);
+    case GameModel::kPoisson:
+      return play_scores<GameModel::kPoisson>(rng, home_mean, away_mean, cap);
+    case GameModel::kLog5:
+      break;
+  }
+  return play_log5(rng, home_odds / (home_odds + away_odds));
+}
+
+}  // namespace standfast::engine

@@ -1,0 +1,134 @@
+// One game: both regulation scores sampled from the league's scoring family, then, if tied,
+// extra innings played half-inning by half-inning.
+//
+// Extra innings (our model; the constants are common practice / from memory, stated here):
+// a half-inning's runs follow a zero-modified geometric law,
+//   P(0) = 1 - s,  P(k) = s (1 - q) q^(k-1) for k >= 1,  q = RUN_CONTINUATION = 0.43,
+// so a scoring half-inning averages 1/(1-q) = 1.75 runs. s is set so that the mean per
+// half-inning is the side's expected runs per game / regulation innings: s = (mu / innings)(1-q).
+// At 4.5 runs per game that gives s = 0.285 (about 71% of half-innings scoreless; from memory).
+// With the automatic runner on second, s is multiplied by RUNNER_FACTOR = 2.2 (run-expectancy
+// tables put the chance of scoring with a runner on second and nobody out near 0.6 against
+// about 0.27 with the bases empty; from memory), capped at S_MAX = 0.95.
+// The visitors bat first; the home side bats in the bottom half and stops as soon as it leads
+// (a walk-off counts only the runs up to the winning run). A game still tied after the innings
+// cap (ExtraInningsRule::max_innings) is settled by a fair draw and counted as drawn.
+//
+// Log5 family: no scores; the home side wins with probability odds_h H / (odds_h H + odds_a)
+// (Bradley-Terry / log5, REFERENCE_VALUES section 5).
+#ifndef STANDFAST_ENGINE_GAME_H
+#define STANDFAST_ENGINE_GAME_H
+
+#include <cstdint>
+
+#include "config/season.h"
+#include "engine/plan.h"
+#include "engine/rng.h"
+#include "engine/score_table.h"
+
+namespace standfast::engine {
+
+struct GameResult {
+  int home_runs = 0;
+  int away_runs = 0;
+  bool home_won = false;
+  bool extra = false;  // went to extra innings
+  bool drawn = false;  // tied at the innings cap, settled by a draw
+};
+
+class ExtraInnings {
+ public:
+  static constexpr double RUN_CONTINUATION = 0.43;
+  static constexpr double RUNNER_FACTOR = 2.2;
+  static constexpr double S_MAX = 0.95;
+
+  ExtraInnings() = default;
+  ExtraInnings(int regulation_innings, const config::ExtraInningsRule& rule);
+
+  // Chance that a side with `mean` expected runs per game scores in an extra half-inning.
+  double scoring_chance(double mean) const {
+    double s = mean * per_inning_;
+    return s < S_MAX ? s : S_MAX;
+  }
+
+  // Runs of one half-inning (0 when not scoring), at most `stop` (the walk-off limit).
+  static int half_inning(Rng& rng, double s, int stop) {
+    const std::uint64_t bits = rng();
+    if (static_cast<double>(bits >> 32) * 0x1.0p-32 >= s) return 0;
+    int runs = 1;
+    std::uint64_t b = bits & 0xffffffffu;
+    while (runs < stop && static_cast<double>(b) * 0x1.0p-32 < RUN_CONTINUATION) {
+      ++runs;
+      b = rng() >> 32;
+    }
+    return runs;
+  }
+
+  // Plays from a tie; adds the extra runs to `r` and sets home_won, extra and drawn.
+  // `cap_innings`: false in the postseason (a series game is played to a decision).
+  void play(Rng& rng, double home_mean, double away_mean, GameResult& r,
+            bool cap_innings = true) const;
+
+  int regulation_innings() const { return regulation_; }
+
+ private:
+  int regulation_ = 9;
+  int max_innings_ = 0;
+  double per_inning_ = 0;  // (1 - q) / innings, times RUNNER_FACTOR with the runner rule
+};
+
+// The run's game machinery: the model, its tables and the extra-innings rule.
+class GameEngine {
+ public:
+  GameEngine() = default;
+  explicit GameEngine(const Plan& plan);
+
+  GameModel model() const { return model_; }
+  const WeibullTable& weibull() const { return weibull_; }
+  const CountTable& counts() const { return counts_; }
+  const ExtraInnings& extra_innings() const { return extra_; }
+
+  // A game between sides with these expected runs (score families).
+  template <GameModel M>
+  GameResult play_scores(Rng& rng, double home_mean, double away_mean, bool cap = true) const {
+    GameResult r;
+    if constexpr (M == GameModel::kWeibull) {
+      const std::uint64_t bits = rng();
+      r.home_runs = weibull_.score(static_cast<std::uint32_t>(bits >> 32),
+                                   weibull_.scale_for_mean(home_mean));
+      r.away_runs =
+          weibull_.score(static_cast<std::uint32_t>(bits), weibull_.scale_for_mean(away_mean));
+    } else {
+      r.home_runs = counts_.score(rng(), home_mean);
+      r.away_runs = counts_.score(rng(), away_mean);
+    }
+    if (r.home_runs == r.away_runs) [[unlikely]] {
+      extra_.play(rng, home_mean, away_mean, r, cap);
+    } else {
+      r.home_won = r.home_runs > r.away_runs;
+    }
+    return r;
+  }
+
+  // Log5: the home side wins with probability p_home.
+  static GameResult play_log5(Rng& rng, double p_home) {
+    GameResult r;
+    r.home_won = uniform01(rng) < p_home;
+    return r;
+  }
+
+  // Dispatch on the model (postseason and tiebreak games; not the regular-season loop).
+  // home_odds/away_odds are used by log5 only (odds = p / (1 - p), home edge included).
+  GameResult play(Rng& rng, double home_mean, double away_mean, double home_odds,
+                  double away_odds, bool cap = true) const;
+
+ private:
+  GameModel model_ = GameModel::kWeibull;
+  WeibullTable weibull_;
+  CountTable counts_;
+  ExtraInnings extra_;
+};
+
+}  // namespace standfast::engine
+
+#endif  // STANDFAST_ENGINE_GAME_H

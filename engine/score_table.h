@@ -1,0 +1,114 @@
+// Fast score samplers built once per run (the shape of the league does not change within a
+// run, only the means do).
+//
+// Discretised Weibull (location -1/2): a score with scale a is floor(a * Q(u)), where
+// Q(u) = (-ln(1 - u))^(1/gamma) is the quantile of E^(1/gamma), E ~ Exp(1): the bin of
+// X = a * E^(1/gamma) - 1/2 that holds X is [k - 1/2, k + 1/2) exactly when floor(a * Q) = k.
+// Q is tabulated on 4096 cells of u with linear interpolation on a 32-bit uniform; the top 16
+// cells (u > 1 - 1/256, where Q bends sharply) are computed exactly. The scale that makes the
+// DISCRETISED mean equal a given mean is tabulated on a grid of means (step 1/16 up to 40, linear
+// interpolation; above it the continuous relation).
+//
+// Negative binomial and Poisson: cdf rows on a grid of means (step 1/16); a draw picks one of
+// the two rows around the mean at random with linear weights (so the mean is exact and the
+// variance is off by at most (1/32)^2) and searches the row.
+#ifndef STANDFAST_ENGINE_SCORE_TABLE_H
+#define STANDFAST_ENGINE_SCORE_TABLE_H
+
+#include <cstdint>
+#include <vector>
+
+namespace standfast::engine {
+
+// Discretised mean of the Weibull score with this scale and shape: sum_{k>=1} exp(-(k/a)^g).
+double discrete_weibull_mean(double scale, double shape);
+
+class WeibullTable {
+ public:
+  static constexpr int CELL_BITS = 12;
+  static constexpr int FRAC_BITS = 32 - CELL_BITS;
+  static constexpr std::uint32_t TAIL_START = (4096u - 16u) << FRAC_BITS;
+  static constexpr double MEAN_STEP = 1.0 / 16.0;
+  static constexpr double MAX_TABLE_MEAN = 40.0;
+
+  WeibullTable() = default;
+  explicit WeibullTable(double shape);
+
+  double shape() const { return shape_; }
+
+  // Q(u) for u = (bits + 1/2) / 2^32.
+  double quantile(std::uint32_t bits) const {
+    if (bits >= TAIL_START) [[unlikely]]
+      return exact_quantile(bits);
+    const std::uint32_t i = bits >> FRAC_BITS;
+    const double f = static_cast<double>(bits & ((1u << FRAC_BITS) - 1u)) * (1.0 / (1 << FRAC_BITS)) +
+                     0.5 / (1 << FRAC_BITS);
+    const double lo = quantile_[i];
+    return lo + f * (quantile_[i + 1] - lo);
+  }
+  double exact_quantile(std::uint32_t bits) const;
+
+  // Scale whose discretised mean is `mean` (mean >= 0).
+  double scale_for_mean(double mean) const {
+    const double x = mean * (1.0 / MEAN_STEP);
+    if (x >= static_cast<double>(scale_.size() - 1)) [[unlikely]]
+      return (mean + 0.5) * inv_gamma_;
+    const auto i = static_cast<std::size_t>(x);
+    const double f = x - static_cast<double>(i);
+    return scale_[i] + f * (scale_[i + 1] - scale_[i]);
+  }
+
+  // One score of a side with this scale.
+  int score(std::uint32_t bits, double scale) const {
+    return static_cast<int>(scale * quantile(bits));
+  }
+
+ private:
+  double shape_ = 0;
+  double inv_shape_ = 0;
+  double inv_gamma_ = 0;           // 1 / Gamma(1 + 1/shape)
+  std::vector<double> quantile_;  // 4097 values at u = i / 4096
+  std::vector<double> scale_;     // at mean = i * MEAN_STEP
+};
+
+enum class CountFamily { kNegativeBinomial, kPoisson };
+
+class CountTable {
+ public:
+  static constexpr double MEAN_STEP = 1.0 / 16.0;
+  static constexpr double MAX_MEAN = 40.0;
+
+  CountTable() = default;
+  // size: negative-binomial size r (ignored for Poisson).
+  CountTable(CountFamily family, double size);
+
+  // One score with this mean (clamped to [0, MAX_MEAN]) from 64 random bits.
+  int score(std::uint64_t bits, double mean) const {
+    double x = mean * (1.0 / MEAN_STEP);
+    if (x < 0) x = 0;
+    if (x > MAX_MEAN / MEAN_STEP - 1e-9) x = MAX_MEAN / MEAN_STEP - 1e-9;
+    auto row = static_cast<std::size_t>(x);
+    const double f = x - static_cast<double>(row);
+    const double pick = static_cast<double>(bits & 0xffffffffu) * 0x1.0p-32;
+    if (pick < f) ++row;
+    const double u = static_cast<double>(bits >> 32) * 0x1.0p-32;
+    const double* c = cdf_.data() + offset_[row];
+    const double* end = cdf_.data() + offset_[row + 1];
+    const double* p = c;
+    while (p < end - 1 && u >= *p) ++p;
+    return static_cast<int>(p - c);
+  }
+
+  // Exact pmf used to build the rows.
+  double pmf(int k, double mean) const;
+
+ private:
+  CountFamily family_ = CountFamily::kPoisson;
+  double size_ = 0;
+  std::vector<double> cdf_;             // rows of P(score <= k)
+  std::vector<std::size_t> offset_;     // row starts; size rows + 1
+};
+
+}  // namespace standfast::engine
+
+#endif  // STANDFAST_ENGINE_SCORE_TABLE_H
