@@ -3,8 +3,7 @@
 namespace standfast::engine {
 
 ExtraInnings::ExtraInnings(int regulation_innings, const config::ExtraInningsRule& rule)
-    : regulation_(regulation_innings > 0 ? regulation_innings : 9),
-      max_innings_(rule.max_innings) {
+    : regulation_(regulation_innings > 0 ? regulation_innings : 9), max_innings_(rule.max_innings) {
   per_inning_ = (1.0 - RUN_CONTINUATION) / regulation_;
   if (rule.runner_on_second) per_inning_ *= RUNNER_FACTOR;
 }

@@ -119,8 +119,8 @@ class GameEngine {
 
   // Dispatch on the model (postseason and tiebreak games; not the regular-season loop).
   // home_odds/away_odds are used by log5 only (odds = p / (1 - p), home edge included).
-  GameResult play(Rng& rng, double home_mean, double away_mean, double home_odds,
-                  double away_odds, bool cap = true) const;
+  GameResult play(Rng& rng, double home_mean, double away_mean, double home_odds, double away_odds,
+                  bool cap = true) const;
 
  private:
   GameModel model_ = GameModel::kWeibull;

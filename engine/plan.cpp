@@ -115,8 +115,8 @@ void compile_postseason(const config::Season& season, Plan& plan) {
     std::string where = "conference";
     if (c.conference >= 0 && c.conference < static_cast<int>(season.groups.size()))
       where += " '" + season.groups[static_cast<std::size_t>(c.conference)].id + "'";
-    PlanBracket b = make_bracket(c.division_winners + c.at_large, c.byes,
-                                 total_rounds - final_rounds, where);
+    PlanBracket b =
+        make_bracket(c.division_winners + c.at_large, c.byes, total_rounds - final_rounds, where);
     b.conference = c.conference;
     const auto it = std::find(season.conferences.begin(), season.conferences.end(), c.conference);
     b.conference_position =
@@ -258,8 +258,7 @@ Plan compile_plan(const config::Season& season, const models::LeagueRatings& rat
     const auto& d = season.games[static_cast<std::size_t>(i)].date;
     return d ? *d : UNDATED;
   };
-  std::stable_sort(order.begin(), order.end(),
-                   [&](int a, int b) { return day_of(a) < day_of(b); });
+  std::stable_sort(order.begin(), order.end(), [&](int a, int b) { return day_of(a) < day_of(b); });
   for (int i : order) {
     const auto& g = season.games[static_cast<std::size_t>(i)];
     const config::DayNumber day = day_of(i);
@@ -279,6 +278,11 @@ Plan compile_plan(const config::Season& season, const models::LeagueRatings& rat
     plan.game_index.push_back(i);
   }
 
+  for (int t = 0; t < n; ++t)
+    plan.final_slot.push_back(
+        static_cast<std::uint16_t>(has[static_cast<std::size_t>(t)] ? t + n : t));
+  plan.played = played_record(season);
+  plan.seeder = Seeder(season);
   compile_postseason(season, plan);
   return plan;
 }

@@ -9,6 +9,8 @@
 #include <vector>
 
 #include "config/season.h"
+#include "engine/season_record.h"
+#include "engine/seeding.h"
 
 namespace standfast::models {
 struct LeagueRatings;
@@ -46,7 +48,7 @@ struct PlanBracket {
   bool winners_first = true;
   int conference_position = -1;  // position in Season::conferences (-1: single bracket)
   int first_round = 0;           // index of the round this bracket starts in
-  int rounds = 0;       // rounds played inside the bracket
+  int rounds = 0;                // rounds played inside the bracket
   // Standard bracket order of seeds (1-based) padded to a power of two: positions 2i and 2i+1
   // meet in the first round; seeds above `qualifiers` are empty slots (a bye for the opponent).
   std::vector<int> order;
@@ -72,8 +74,9 @@ class Plan {
   std::vector<double> win_pct;  // log5 strengths (per team), from overrides or ratings
 
   // Overrides: slot teams + t of team t (empty when no team has overrides).
-  std::vector<SlotOverride> overrides;  // size teams (has_* all false when none)
-  int slots = 0;                        // teams, or 2 * teams with overrides
+  std::vector<SlotOverride> overrides;    // size teams (has_* all false when none)
+  int slots = 0;                          // teams, or 2 * teams with overrides
+  std::vector<std::uint16_t> final_slot;  // per team: its slot after the last game (postseason)
 
   // Remaining games, in date order (undated last, in file order).
   std::vector<std::uint16_t> home_slot, away_slot;
@@ -86,8 +89,10 @@ class Plan {
   std::vector<std::string> team_ids;
   std::vector<int> team_division, team_conference;  // indexes into Season::groups
   std::vector<int> divisions, conferences;
-  std::vector<double> run_factor;  // venue run factor of each team's home venue
+  std::vector<double> run_factor;               // venue run factor of each team's home venue
   std::vector<int> played_wins, played_losses;  // from the played games
+  SeasonRecord played;                          // the record of the played games
+  Seeder seeder;                                // standings, tiebreakers and seeding
   int max_games = 0;                            // most games any team plays (wins histogram size)
 
   // Postseason.

@@ -76,8 +76,8 @@ int play_bracket(const PlanBracket& bracket, std::span<const PlanRound> rounds, 
       }
       const int hi = std::min(a, b), lo = std::max(a, b);
       const PlanRound& round = rounds[static_cast<std::size_t>(r)];
-      const int w = play_series(round.best_of, round.higher_hosts, seeded[hi - 1],
-                                seeded[lo - 1], game);
+      const int w =
+          play_series(round.best_of, round.higher_hosts, seeded[hi - 1], seeded[lo - 1], game);
       next.push_back(w == seeded[hi - 1] ? hi : lo);
     }
     cur.swap(next);

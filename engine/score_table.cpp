@@ -46,8 +46,7 @@ double solve_scale(double mean, double shape, double inv_gamma) {
 
 }  // namespace
 
-WeibullTable::WeibullTable(double shape)
-    : shape_(shape), inv_shape_(0), inv_gamma_(0) {
+WeibullTable::WeibullTable(double shape) : shape_(shape), inv_shape_(0), inv_gamma_(0) {
   check_shape(shape, "WeibullTable");
   inv_shape_ = 1.0 / shape;
   inv_gamma_ = 1.0 / std::tgamma(1.0 + inv_shape_);

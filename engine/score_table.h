@@ -6,7 +6,7 @@
 // X = a * E^(1/gamma) - 1/2 that holds X is [k - 1/2, k + 1/2) exactly when floor(a * Q) = k.
 // Q is tabulated on 4096 cells of u with linear interpolation on a 32-bit uniform; the top 16
 // cells (u > 1 - 1/256, where Q bends sharply) are computed exactly. The scale that makes the
-// DISCRETISED mean equal a given mean is tabulated on a grid of means (step 1/16 up to 40, linear
+// DISCRETISED mean equal a given mean is tabulated on a grid of means (step 1/64 up to 40, linear
 // interpolation; above it the continuous relation).
 //
 // Negative binomial and Poisson: cdf rows on a grid of means (step 1/16); a draw picks one of
@@ -28,7 +28,7 @@ class WeibullTable {
   static constexpr int CELL_BITS = 12;
   static constexpr int FRAC_BITS = 32 - CELL_BITS;
   static constexpr std::uint32_t TAIL_START = (4096u - 16u) << FRAC_BITS;
-  static constexpr double MEAN_STEP = 1.0 / 16.0;
+  static constexpr double MEAN_STEP = 1.0 / 64.0;
   static constexpr double MAX_TABLE_MEAN = 40.0;
 
   WeibullTable() = default;
@@ -41,8 +41,9 @@ class WeibullTable {
     if (bits >= TAIL_START) [[unlikely]]
       return exact_quantile(bits);
     const std::uint32_t i = bits >> FRAC_BITS;
-    const double f = static_cast<double>(bits & ((1u << FRAC_BITS) - 1u)) * (1.0 / (1 << FRAC_BITS)) +
-                     0.5 / (1 << FRAC_BITS);
+    const double f =
+        static_cast<double>(bits & ((1u << FRAC_BITS) - 1u)) * (1.0 / (1 << FRAC_BITS)) +
+        0.5 / (1 << FRAC_BITS);
     const double lo = quantile_[i];
     return lo + f * (quantile_[i + 1] - lo);
   }
@@ -66,7 +67,7 @@ class WeibullTable {
  private:
   double shape_ = 0;
   double inv_shape_ = 0;
-  double inv_gamma_ = 0;           // 1 / Gamma(1 + 1/shape)
+  double inv_gamma_ = 0;          // 1 / Gamma(1 + 1/shape)
   std::vector<double> quantile_;  // 4097 values at u = i / 4096
   std::vector<double> scale_;     // at mean = i * MEAN_STEP
 };
@@ -105,8 +106,8 @@ class CountTable {
  private:
   CountFamily family_ = CountFamily::kPoisson;
   double size_ = 0;
-  std::vector<double> cdf_;             // rows of P(score <= k)
-  std::vector<std::size_t> offset_;     // row starts; size rows + 1
+  std::vector<double> cdf_;          // rows of P(score <= k)
+  std::vector<std::size_t> offset_;  // row starts; size rows + 1
 };
 
 }  // namespace standfast::engine

@@ -1,14 +1,327 @@
 #include "engine/simulate.h"
 
+#include <tbb/blocked_range.h>
+#include <tbb/enumerable_thread_specific.h>
+#include <tbb/global_control.h>
+#include <tbb/parallel_for.h>
+
+#include <algorithm>
+#include <cmath>
+#include <memory>
+#include <optional>
 #include <stdexcept>
+
+#include "engine/game.h"
+#include "engine/postseason.h"
+#include "engine/streams.h"
+#include "engine/tally.h"
 
 namespace standfast::engine {
 
+namespace {
+
+// Seasons per parallel task. Any value gives the same result; this one keeps the per-task
+// stream placement (an O(log n) jump) negligible.
+constexpr std::uint64_t GRAIN = 128;
+
+// Per-thread working space and tallies. Holds no random state.
+struct Worker {
+  std::vector<double> off, def, odds;  // per slot: league mean x offence, defence, log5 odds
+  std::vector<double> z, x;            // normal draws and correlated log deviations
+  SeasonRecord record;
+  LeagueRanking ranking;
+  TiebreakScratch scratch;
+  BracketScratch bracket;
+  std::vector<int> seed_of, reached, is_bye;
+  std::vector<unsigned char> division_winner;
+  std::vector<int> champions;
+  std::vector<double> champion_key;
+  Tally tally;
+
+  explicit Worker(const Plan& plan)
+      : off(static_cast<std::size_t>(plan.slots)),
+        def(static_cast<std::size_t>(plan.slots)),
+        odds(static_cast<std::size_t>(plan.slots)),
+        z(2 * static_cast<std::size_t>(plan.teams)),
+        x(2 * static_cast<std::size_t>(plan.teams)),
+        record(plan.played),
+        ranking(plan.seeder.make_ranking()),
+        scratch(plan.seeder.make_scratch()),
+        seed_of(static_cast<std::size_t>(plan.teams)),
+        reached(static_cast<std::size_t>(plan.teams)),
+        is_bye(static_cast<std::size_t>(plan.teams)),
+        division_winner(static_cast<std::size_t>(plan.teams)),
+        tally(plan.teams, static_cast<int>(plan.rounds.size()), plan.max_games,
+              std::max(plan.max_seed, 1)) {
+    champions.reserve(plan.brackets.size());
+    champion_key.reserve(plan.brackets.size());
+    bracket.current.reserve(64);
+    bracket.next.reserve(64);
+  }
+};
+
+class SeasonRunner {
+ public:
+  SeasonRunner(const Plan& plan, bool postseason)
+      : plan_(plan), games_(plan), postseason_(postseason && plan.postseason) {
+    home_odds_factor_ = std::pow(plan.home_edge, plan.shape);
+  }
+
+  void run(SeasonStreams& streams, Worker& w) const {
+    Rng strengths = streams.stream(Purpose::kStrengths);
+    draw_strengths(strengths, w);
+    w.record = plan_.played;  // same size: copies without allocating
+    Rng games = streams.stream(Purpose::kGames);
+    switch (plan_.model) {
+      case GameModel::kWeibull:
+        play_regular<GameModel::kWeibull>(games, w);
+        break;
+      case GameModel::kNegativeBinomial:
+        play_regular<GameModel::kNegativeBinomial>(games, w);
+        break;
+      case GameModel::kPoisson:
+        play_regular<GameModel::kPoisson>(games, w);
+        break;
+      case GameModel::kLog5:
+        play_regular<GameModel::kLog5>(games, w);
+        break;
+    }
+    Rng tiebreak = streams.stream(Purpose::kTiebreak);
+    HookContext tie_ctx{this, &w, &tiebreak};
+    plan_.seeder.rank(w.record, tiebreak, w.scratch, w.ranking, ExtraGame{&tie_ctx, &hook_play});
+    tally(streams, w);
+  }
+
+ private:
+  struct HookContext {
+    const SeasonRunner* runner;
+    Worker* worker;
+    Rng* rng;
+  };
+
+  static int hook_play(void* context, int home, int away) {
+    auto* c = static_cast<HookContext*>(context);
+    return c->runner->play_one(*c->rng, *c->worker, home, away);
+  }
+
+  // A game outside the regular schedule (extra tiebreak game or postseason) at home's venue,
+  // with both teams' end-of-season parameters; played to a decision.
+  int play_one(Rng& rng, const Worker& w, int home, int away) const {
+    const auto hs = plan_.final_slot[static_cast<std::size_t>(home)];
+    const auto as = plan_.final_slot[static_cast<std::size_t>(away)];
+    const double rf = plan_.run_factor[static_cast<std::size_t>(home)];
+    const double hm = w.off[hs] * w.def[as] * rf * plan_.home_edge;
+    const double am = w.off[as] * w.def[hs] * rf;
+    const GameResult r =
+        games_.play(rng, hm, am, w.odds[hs] * home_odds_factor_, w.odds[as], /*cap=*/false);
+    return r.home_won ? home : away;
+  }
+
+  void draw_strengths(Rng& rng, Worker& w) const {
+    const auto n = static_cast<std::size_t>(plan_.teams);
+    if (plan_.draw_strengths) {
+      const std::size_t m = 2 * n;
+      for (std::size_t i = 0; i < m; ++i) w.z[i] = standard_normal(rng);
+      const double* l = plan_.cholesky.data();
+      for (std::size_t i = 0; i < m; ++i) {
+        const double* row = l + i * m;
+        double s = 0;
+        for (std::size_t j = 0; j <= i; ++j) s += row[j] * w.z[j];
+        w.x[i] = s;
+      }
+    } else {
+      std::fill(w.x.begin(), w.x.end(), 0.0);
+    }
+    for (std::size_t t = 0; t < n; ++t) {
+      const double off = std::exp(plan_.log_offence[t] + w.x[t]);
+      const double def = std::exp(plan_.log_defence[t] + w.x[n + t]);
+      w.off[t] = plan_.league_mean * off;
+      w.def[t] = def;
+      const double p = plan_.win_pct[t];
+      w.odds[t] = p / (1.0 - p);
+    }
+    if (plan_.slots == plan_.teams) return;
+    const double lm = plan_.league_mean;
+    for (std::size_t t = 0; t < n; ++t) {
+      const SlotOverride& o = plan_.overrides[t];
+      const double b = o.blend;
+      double off = w.off[t] / lm, def = w.def[t];
+      double p = plan_.win_pct[t];
+      if (o.has_win_pct) {
+        // Runs whose Pythagorean share (exponent = shape) is the win percentage, around the
+        // league mean: (L off + 1/2) / (L def + 1/2) = (w / (1 - w))^(1/shape).
+        const double wp = std::clamp(o.win_pct, 1e-6, 1.0 - 1e-6);
+        const double q = std::sqrt(std::pow(wp / (1.0 - wp), 1.0 / plan_.shape));
+        const double o_runs = (lm + 0.5) * q - 0.5, d_runs = (lm + 0.5) / q - 0.5;
+        off = (1 - b) * off + b * std::max(o_runs, 0.01) / lm;
+        def = (1 - b) * def + b * std::max(d_runs, 0.01) / lm;
+        p = (1 - b) * p + b * wp;
+      }
+      if (o.has_runs_scored) off = (1 - b) * off + b * o.offence;
+      if (o.has_runs_allowed) def = (1 - b) * def + b * o.defence;
+      w.off[n + t] = lm * off;
+      w.def[n + t] = def;
+      p = std::clamp(p, 1e-9, 1.0 - 1e-9);
+      w.odds[n + t] = p / (1.0 - p);
+    }
+  }
+
+  template <GameModel M>
+  void play_regular(Rng& rng, Worker& w) const {
+    const std::size_t count = plan_.remaining_games();
+    const std::uint16_t* hs = plan_.home_slot.data();
+    const std::uint16_t* as = plan_.away_slot.data();
+    const std::uint16_t* ht = plan_.home_team.data();
+    const std::uint16_t* at = plan_.away_team.data();
+    const float* hf = plan_.home_factor.data();
+    const float* af = plan_.away_factor.data();
+    const double* off = w.off.data();
+    const double* def = w.def.data();
+    const double* odds = w.odds.data();
+    std::uint64_t extra = 0, drawn = 0;
+    SeasonRecord& rec = w.record;
+    for (std::size_t g = 0; g < count; ++g) {
+      GameResult r;
+      if constexpr (M == GameModel::kLog5) {
+        const double oh = odds[hs[g]] * home_odds_factor_;
+        r = GameEngine::play_log5(rng, oh / (oh + odds[as[g]]));
+      } else {
+        const double hm = off[hs[g]] * def[as[g]] * static_cast<double>(hf[g]);
+        const double am = off[as[g]] * def[hs[g]] * static_cast<double>(af[g]);
+        r = games_.play_scores<M>(rng, hm, am);
+      }
+      extra += r.extra;
+      drawn += r.drawn;
+      if (r.home_won)
+        rec.add_result(ht[g], at[g], r.home_runs, r.away_runs);
+      else
+        rec.add_result(at[g], ht[g], r.away_runs, r.home_runs);
+    }
+    w.tally.add_games(count, extra, drawn);
+  }
+
+  void tally(SeasonStreams& streams, Worker& w) const {
+    const auto n = static_cast<std::size_t>(plan_.teams);
+    std::fill(w.seed_of.begin(), w.seed_of.end(), 0);
+    std::fill(w.reached.begin(), w.reached.end(), -1);
+    std::fill(w.is_bye.begin(), w.is_bye.end(), 0);
+    std::fill(w.division_winner.begin(), w.division_winner.end(), 0);
+    for (std::size_t d = 0; d < plan_.divisions.size(); ++d)
+      w.division_winner[static_cast<std::size_t>(w.ranking.division_winner(static_cast<int>(d)))] =
+          1;
+    int champion = -1;
+    if (plan_.postseason) {
+      std::optional<Rng> post;
+      if (postseason_) post.emplace(streams.stream(Purpose::kPostseason));
+      HookContext ctx{this, &w, post ? &*post : nullptr};
+      const ExtraGame game{&ctx, &hook_play};
+      w.champions.clear();
+      for (const PlanBracket& b : plan_.brackets) {
+        const std::span<const int> seeds = b.conference_position < 0
+                                               ? std::span<const int>(w.ranking.league_seeds)
+                                               : w.ranking.conference_seeds(b.conference_position);
+        for (std::size_t s = 0; s < seeds.size(); ++s) {
+          const auto t = static_cast<std::size_t>(seeds[s]);
+          w.seed_of[t] = static_cast<int>(s) + 1;
+          w.is_bye[t] = static_cast<int>(s) < b.byes;
+        }
+        if (postseason_)
+          w.champions.push_back(
+              play_bracket(b, plan_.rounds, plan_.reseed, seeds, game, w.reached, w.bracket));
+      }
+      if (postseason_) {
+        if (plan_.final_stage) {
+          // Conference winners seeded by record; equal records by a random draw.
+          w.champion_key.clear();
+          for (int c : w.champions) {
+            (void)c;
+            w.champion_key.push_back(uniform01(*post));
+          }
+          auto better = [&](std::size_t i, std::size_t j) {
+            const int a = w.champions[i], b = w.champions[j];
+            const int cmp = compare_pct(w.record.wins(a), w.record.losses(a), w.record.wins(b),
+                                        w.record.losses(b));
+            if (cmp != 0) return cmp > 0;
+            return w.champion_key[i] < w.champion_key[j];
+          };
+          // Insertion sort of indexes (few conferences), then the final stage.
+          const std::size_t k = w.champions.size();
+          int idx[64];
+          for (std::size_t i = 0; i < k && i < 64; ++i) idx[i] = static_cast<int>(i);
+          for (std::size_t i = 1; i < k && i < 64; ++i)
+            for (std::size_t j = i; j > 0 && better(static_cast<std::size_t>(idx[j]),
+                                                    static_cast<std::size_t>(idx[j - 1]));
+                 --j)
+              std::swap(idx[j], idx[j - 1]);
+          int seeded[64];
+          for (std::size_t i = 0; i < k && i < 64; ++i)
+            seeded[i] = w.champions[static_cast<std::size_t>(idx[i])];
+          champion = play_bracket(plan_.final_bracket, plan_.rounds, plan_.reseed,
+                                  std::span<const int>(seeded, std::min<std::size_t>(k, 64)), game,
+                                  w.reached, w.bracket);
+        } else if (!w.champions.empty()) {
+          champion = w.champions.front();
+        }
+      }
+    }
+    for (std::size_t t = 0; t < n; ++t) {
+      const int ti = static_cast<int>(t);
+      w.tally.add_team(ti, w.record.wins(ti), w.record.losses(ti), w.seed_of[t],
+                       w.division_winner[t] != 0, w.is_bye[t] != 0, w.reached[t], ti == champion);
+    }
+    w.tally.add_season();
+  }
+
+  const Plan& plan_;
+  GameEngine games_;
+  bool postseason_;
+  double home_odds_factor_ = 1.0;
+};
+
+}  // namespace
+
 SimulationResult simulate(const Plan& plan, const RunOptions& options) {
+  if (options.batch == 0) throw std::invalid_argument("simulate: batch must be > 0");
+  if (options.threads < 0)
+    throw std::invalid_argument("simulate: threads must be >= 0, got " +
+                                std::to_string(options.threads));
+  if (plan.teams < 2) throw std::invalid_argument("simulate: the plan has no league");
+  std::optional<tbb::global_control> control;
+  if (options.threads > 0)
+    control.emplace(tbb::global_control::max_allowed_parallelism,
+                    static_cast<std::size_t>(options.threads));
+
+  const SeasonRunner runner(plan, options.postseason);
+  tbb::enumerable_thread_specific<Worker> workers([&] { return Worker(plan); });
+  Tally total(plan.teams, static_cast<int>(plan.rounds.size()), plan.max_games,
+              std::max(plan.max_seed, 1));
+
   SimulationResult result;
+  std::uint64_t done = 0;
+  while (done < options.seasons) {
+    const std::uint64_t end = std::min(options.seasons, done + options.batch);
+    tbb::parallel_for(tbb::blocked_range<std::uint64_t>(done, end, GRAIN),
+                      [&](const tbb::blocked_range<std::uint64_t>& range) {
+                        Worker& w = workers.local();
+                        SeasonStreams streams(options.seed, range.begin());
+                        for (std::uint64_t s = range.begin(); s < range.end(); ++s) {
+                          runner.run(streams, w);
+                          streams.next();
+                        }
+                      });
+    done = end;
+    total.clear();
+    for (const Worker& w : workers) total.merge(w.tally);
+    if (options.progress) options.progress(done, options.seasons);
+    if (options.target_se > 0 && done < options.seasons && total.max_se() < options.target_se) {
+      result.stopped_early = true;
+      break;
+    }
+  }
+  total.fill(result);
   result.seed = options.seed;
-  result.teams.resize(static_cast<std::size_t>(plan.teams));
-  throw std::logic_error("simulate: not built yet");
+  for (const auto& r : plan.rounds) result.round_names.push_back(r.name);
+  return result;
 }
 
 }  // namespace standfast::engine

@@ -28,8 +28,8 @@ class SeasonStreams {
  private:
   class Access;
   using State = pcg_extras::pcg128_t;
-  State base_state_{};  // state of purpose 0 of the current season
-  State mult_{}, plus_{};   // one block: state -> state * mult + plus
+  State base_state_{};                   // state of purpose 0 of the current season
+  State mult_{}, plus_{};                // one block: state -> state * mult + plus
   State mult_season_{}, plus_season_{};  // kPurposeCount blocks
   std::uint64_t seed_ = 0, season_ = 0;
 };

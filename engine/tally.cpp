@@ -91,8 +91,7 @@ void Tally::fill(SimulationResult& r) const {
   r.games_simulated = games_;
   r.extra_innings_games = extra_;
   r.drawn_games = drawn_;
-  r.extra_innings_share =
-      games_ ? static_cast<double>(extra_) / static_cast<double>(games_) : 0.0;
+  r.extra_innings_share = games_ ? static_cast<double>(extra_) / static_cast<double>(games_) : 0.0;
   r.max_se = max_se();
   r.teams.assign(static_cast<std::size_t>(teams_), TeamOdds{});
   for (std::size_t t = 0; t < r.teams.size(); ++t) {
@@ -103,12 +102,13 @@ void Tally::fill(SimulationResult& r) const {
     o.title = probability(title_[t], seasons_);
     o.reached_round.resize(static_cast<std::size_t>(rounds_));
     for (int k = 0; k < rounds_; ++k)
-      o.reached_round[static_cast<std::size_t>(k)] =
-          probability(reached_[t * static_cast<std::size_t>(rounds_) + static_cast<std::size_t>(k)],
-                      seasons_);
-    const auto w0 = wins_.begin() + static_cast<std::ptrdiff_t>(t * static_cast<std::size_t>(max_wins_ + 1));
+      o.reached_round[static_cast<std::size_t>(k)] = probability(
+          reached_[t * static_cast<std::size_t>(rounds_) + static_cast<std::size_t>(k)], seasons_);
+    const auto w0 =
+        wins_.begin() + static_cast<std::ptrdiff_t>(t * static_cast<std::size_t>(max_wins_ + 1));
     o.wins_histogram.assign(w0, w0 + max_wins_ + 1);
-    const auto s0 = seed_.begin() + static_cast<std::ptrdiff_t>(t * static_cast<std::size_t>(max_seed_ + 1));
+    const auto s0 =
+        seed_.begin() + static_cast<std::ptrdiff_t>(t * static_cast<std::size_t>(max_seed_ + 1));
     o.seed_histogram.assign(s0, s0 + max_seed_ + 1);
     std::uint64_t sum = 0;
     for (std::size_t w = 0; w < o.wins_histogram.size(); ++w) sum += w * o.wins_histogram[w];
