@@ -1,8 +1,11 @@
-// Random streams for the simulation. Every simulated season owns disjoint blocks of one pcg64
-// sequence, one block per purpose, found by jumping ahead from the run's seed:
-//   block b = season * kPurposeCount + purpose;  rng = pcg64(seed);  rng.advance(b << 64)
-// so a season's numbers depend only on (seed, season, purpose), never on the thread that runs
-// it. Samplers here are our own: std:: distributions differ between standard libraries.
+// Random streams for the simulation. Every simulated season owns one stream per purpose, keyed
+// by the block number b = season * kPurposeCount + purpose: the stream is a pcg64 whose 128-bit
+// starting state is a strong hash (the SplitMix64 finaliser, Steele, Lea & Flood 2014) of
+// (seed, b), so a season's numbers depend only on (seed, season, purpose), never on the thread
+// that runs it. (An earlier scheme jumped 2^64 steps per block; with a power-of-two LCG that
+// leaves the low 64 state bits equal in every block and made the k-th draws of different
+// seasons strongly correlated: see tests/rng_test.cpp.) Samplers here are our own: std::
+// distributions differ between standard libraries.
 #ifndef STANDFAST_ENGINE_RNG_H
 #define STANDFAST_ENGINE_RNG_H
 
@@ -22,7 +25,18 @@ enum class Purpose : std::uint32_t {
 };
 inline constexpr std::uint64_t kPurposeCount = 4;
 
-// The stream of one purpose of one simulated season.
+// The SplitMix64 finaliser (a bijection of 64-bit words with full avalanche).
+inline std::uint64_t mix64(std::uint64_t z) {
+  z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9ull;
+  z = (z ^ (z >> 27)) * 0x94d049bb133111ebull;
+  return z ^ (z >> 31);
+}
+
+// The 128-bit starting state of block `block` of the run with this seed.
+pcg_extras::pcg128_t stream_state(std::uint64_t seed, std::uint64_t block);
+
+// The stream of one purpose of one simulated season: pcg64(stream_state(seed, b)) with
+// b = season * kPurposeCount + purpose.
 Rng make_stream(std::uint64_t seed, std::uint64_t season, Purpose purpose);
 
 // Uniform on [0, 1) with 53 random bits.

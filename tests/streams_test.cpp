@@ -1,7 +1,5 @@
-// Tests for engine/streams.h: the fast per-season streams equal make_stream (engine/rng.h),
-// whose block scheme is itself checked against pcg's own advance in tests/rng_test.cpp.
-// Ref: O'Neill, M. E. (2014), "PCG: A family of simple fast space-efficient statistically good
-// algorithms for random number generation", HMC-CS-2014-0905 (LCG jump-ahead is affine).
+// Tests for engine/streams.h: the per-season cursor gives exactly make_stream (engine/rng.h),
+// whose scheme is checked in tests/rng_test.cpp.
 #include "engine/streams.h"
 
 #include <catch2/catch.hpp>
