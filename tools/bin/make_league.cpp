@@ -20,12 +20,12 @@
 #include <filesystem>
 #include <map>
 #include <optional>
+#include <pcg_random.hpp>
 #include <stdexcept>
 #include <string>
 #include <vector>
 
 #include "config/season.h"
-#include "engine/rng.h"
 #include "tools/bin/league_names.h"
 
 namespace {
@@ -33,10 +33,40 @@ namespace {
 using standfast::config::DayNumber;
 using standfast::config::format_date;
 using standfast::config::parse_date;
-using standfast::engine::Rng;
-using standfast::engine::standard_normal;
-using standfast::engine::uniform01;
-using standfast::engine::uniform_below;
+// The generator's own streams and samplers, independent of engine/rng.h so that the committed
+// scenarios stay the same when the simulation's streams change.
+using Rng = pcg64;
+
+// The SplitMix64 finaliser (Steele, Lea & Flood 2014).
+std::uint64_t mix64(std::uint64_t z) {
+  z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9ull;
+  z = (z ^ (z >> 27)) * 0x94d049bb133111ebull;
+  return z ^ (z >> 31);
+}
+
+// Stream `stream` of the run with this seed: a pcg64 whose 128-bit state is a hash of both.
+Rng make_rng(std::uint64_t seed, std::uint64_t stream) {
+  constexpr std::uint64_t GOLDEN = 0x9e3779b97f4a7c15ull;
+  const std::uint64_t hi = mix64(seed + GOLDEN * (2 * stream + 1));
+  const std::uint64_t lo = mix64(hi ^ (seed + GOLDEN * (2 * stream + 2)));
+  return Rng((static_cast<pcg_extras::pcg128_t>(hi) << 64) | lo);
+}
+
+// Uniform on [0, 1) with 53 random bits.
+double uniform01(Rng& rng) { return static_cast<double>(rng() >> 11) * 0x1.0p-53; }
+
+// Uniform integer on [0, n), unbiased (pcg's rejection method). n > 0.
+std::uint64_t uniform_below(Rng& rng, std::uint64_t n) { return rng(n); }
+
+// Standard normal by the Marsaglia polar method (the spare value is dropped).
+double standard_normal(Rng& rng) {
+  for (;;) {
+    const double u = 2.0 * uniform01(rng) - 1.0;
+    const double v = 2.0 * uniform01(rng) - 1.0;
+    const double s = u * u + v * v;
+    if (s > 0.0 && s < 1.0) return u * std::sqrt(-2.0 * std::log(s) / s);
+  }
+}
 
 // The generator's hidden truth (written into the files for checking fits).
 constexpr double LEAGUE_MEAN = 4.5;   // runs per side per game before team factors
@@ -51,7 +81,7 @@ constexpr double RUNNER_ON_SECOND_BONUS = 0.6;
 constexpr double RUNS_GIVEN_SCORING = 1.8;  // mean runs in a half-inning that scores
 constexpr int MAX_STRAIGHT = 20;  // most days in a row with games for a club (common practice)
 
-// Sub-streams of the generator (the `season` argument of make_stream).
+// Sub-streams of the generator (the `stream` argument of make_rng).
 enum Stream : std::uint64_t {
   kStrengthStream = 1,
   kScoreStream = 2,
@@ -122,8 +152,7 @@ void require(bool ok, const std::string& what) {
 // Clubs and strengths
 
 void draw_strengths(League& lg, std::uint64_t seed) {
-  Rng rng =
-      standfast::engine::make_stream(seed, kStrengthStream, standfast::engine::Purpose::kStrengths);
+  Rng rng = make_rng(seed, kStrengthStream);
   const int n = lg.n();
   std::vector<double> lo(static_cast<std::size_t>(n)), ld(static_cast<std::size_t>(n));
   double mo = 0, md = 0;
@@ -417,8 +446,7 @@ int season_days(const std::vector<Series>& series) {
 // Tries schedules until one places every series and ends within [min_days, max_days].
 std::vector<Series> make_schedule(const League& lg, std::uint64_t seed, int& attempts) {
   for (int attempt = 0; attempt < 2000; ++attempt) {
-    Rng rng = standfast::engine::make_stream(seed, kScheduleStream + attempt,
-                                             standfast::engine::Purpose::kGames);
+    Rng rng = make_rng(seed, kScheduleStream + attempt);
     std::vector<Series> series = make_series(lg, rng);
     if (!place_series(lg, series, rng)) continue;
     const int days = season_days(series);
@@ -507,7 +535,7 @@ struct Outcome {
 Outcome make_games(const League& lg, std::uint64_t seed, double played_fraction) {
   Outcome out;
   out.series = make_schedule(lg, seed, out.schedule_attempts);
-  Rng ev = standfast::engine::make_stream(seed, kEventStream, standfast::engine::Purpose::kGames);
+  Rng ev = make_rng(seed, kEventStream);
   std::vector<Game>& games = out.games;
   for (const Series& s : out.series) {
     for (int k = 0; k < s.length; ++k) games.push_back(Game{s.start + k, s.home, s.away});
@@ -578,7 +606,7 @@ Outcome make_games(const League& lg, std::uint64_t seed, double played_fraction)
       played.empty() ? 0
                      : std::max(1, static_cast<int>(std::lround(SHORTENED_RATE * played.size())));
   for (int i : pick(played, n_short, ev)) games[static_cast<std::size_t>(i)].shortened = true;
-  Rng sc = standfast::engine::make_stream(seed, kScoreStream, standfast::engine::Purpose::kGames);
+  Rng sc = make_rng(seed, kScoreStream);
   for (int i : played) play(lg, games[static_cast<std::size_t>(i)], sc);
   // Postponed games go last.
   std::stable_partition(games.begin(), games.end(), [](const Game& g) { return g.day >= 0; });
