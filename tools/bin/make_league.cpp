@@ -14,59 +14,29 @@
 
 #include <CLI/CLI.hpp>
 #include <algorithm>
-#include <boost/math/special_functions/gamma.hpp>
 #include <cmath>
 #include <cstdint>
 #include <filesystem>
 #include <map>
 #include <optional>
-#include <pcg_random.hpp>
 #include <stdexcept>
 #include <string>
 #include <vector>
 
 #include "config/season.h"
 #include "tools/bin/league_names.h"
+#include "tools/bin/league_sampling.h"
 
 namespace {
 
 using standfast::config::DayNumber;
 using standfast::config::format_date;
 using standfast::config::parse_date;
-// The generator's own streams and samplers, independent of engine/rng.h so that the committed
-// scenarios stay the same when the simulation's streams change.
-using Rng = pcg64;
-
-// The SplitMix64 finaliser (Steele, Lea & Flood 2014).
-std::uint64_t mix64(std::uint64_t z) {
-  z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9ull;
-  z = (z ^ (z >> 27)) * 0x94d049bb133111ebull;
-  return z ^ (z >> 31);
-}
-
-// Stream `stream` of the run with this seed: a pcg64 whose 128-bit state is a hash of both.
-Rng make_rng(std::uint64_t seed, std::uint64_t stream) {
-  constexpr std::uint64_t GOLDEN = 0x9e3779b97f4a7c15ull;
-  const std::uint64_t hi = mix64(seed + GOLDEN * (2 * stream + 1));
-  const std::uint64_t lo = mix64(hi ^ (seed + GOLDEN * (2 * stream + 2)));
-  return Rng((static_cast<pcg_extras::pcg128_t>(hi) << 64) | lo);
-}
-
-// Uniform on [0, 1) with 53 random bits.
-double uniform01(Rng& rng) { return static_cast<double>(rng() >> 11) * 0x1.0p-53; }
-
-// Uniform integer on [0, n), unbiased (pcg's rejection method). n > 0.
-std::uint64_t uniform_below(Rng& rng, std::uint64_t n) { return rng(n); }
-
-// Standard normal by the Marsaglia polar method (the spare value is dropped).
-double standard_normal(Rng& rng) {
-  for (;;) {
-    const double u = 2.0 * uniform01(rng) - 1.0;
-    const double v = 2.0 * uniform01(rng) - 1.0;
-    const double s = u * u + v * v;
-    if (s > 0.0 && s < 1.0) return u * std::sqrt(-2.0 * std::log(s) / s);
-  }
-}
+using standfast::tools::gen::make_rng;
+using standfast::tools::gen::Rng;
+using standfast::tools::gen::standard_normal;
+using standfast::tools::gen::uniform01;
+using standfast::tools::gen::uniform_below;
 
 // The generator's hidden truth (written into the files for checking fits).
 constexpr double LEAGUE_MEAN = 4.5;   // runs per side per game before team factors
@@ -464,24 +434,14 @@ std::vector<Series> make_schedule(const League& lg, std::uint64_t seed, int& att
 // ---------------------------------------------------------------------------------------------
 // Games and scores
 
-// Score of one side: the discretised Weibull with location -0.5 and shape SHAPE whose
-// continuous version has mean `mean`. P(k) = exp(-(k/a)^g) - exp(-((k+1)/a)^g), so the score
-// is floor of a Weibull(a, g) draw (the unit bin around k of the located variable).
 int weibull_score(double mean, Rng& rng) {
-  const double a = (mean + 0.5) / boost::math::tgamma(1.0 + 1.0 / SHAPE);
-  const double x = a * std::pow(-std::log1p(-uniform01(rng)), 1.0 / SHAPE);
-  return static_cast<int>(std::floor(x));
+  return standfast::tools::gen::weibull_score(mean, SHAPE, rng);
 }
 
 // Runs of one extra half-inning for a side whose game mean is `mean`.
 int half_inning_runs(double mean, bool runner_on_second, Rng& rng) {
   const double m = mean / 9.0 + (runner_on_second ? RUNNER_ON_SECOND_BONUS : 0.0);
-  const double p_score = std::min(0.95, m / RUNS_GIVEN_SCORING);
-  if (uniform01(rng) >= p_score) return 0;
-  const double q_more = (RUNS_GIVEN_SCORING - 1.0) / RUNS_GIVEN_SCORING;
-  int r = 1;
-  while (uniform01(rng) < q_more) ++r;
-  return r;
+  return standfast::tools::gen::half_inning_runs(m, RUNS_GIVEN_SCORING, rng);
 }
 
 void play(const League& lg, Game& g, Rng& rng) {
