@@ -56,6 +56,7 @@ enum Stream : std::uint64_t {
   kStrengthStream = 1,
   kScoreStream = 2,
   kEventStream = 3,
+  kShortenedStream = 4,
   kScheduleStream = 1000,  // + attempt number
 };
 
@@ -473,6 +474,14 @@ void play(const League& lg, Game& g, Rng& rng) {
   }
 }
 
+// Back to not played (scores, innings and the shortened mark cleared).
+void unplay(Game& g) {
+  g.played = false;
+  g.home_runs = g.away_runs = 0;
+  g.innings = 9;
+  g.shortened = false;
+}
+
 // k distinct indexes drawn from `pool` (partial Fisher-Yates with our own sampler).
 std::vector<int> pick(std::vector<int> pool, int k, Rng& rng) {
   k = std::min<int>(k, static_cast<int>(pool.size()));
@@ -526,6 +535,23 @@ Outcome make_games(const League& lg, std::uint64_t seed, double played_fraction)
     if (a.home != b.home) return a.home < b.home;
     return a.number < b.number;
   });
+  // Every game is played out first, so that a later cut-off continues the same season: the
+  // games before an earlier cut-off keep their scores (apart from the few postponed there).
+  // Shortened games: SHORTENED_RATE of each half of the season, at least one in each half.
+  {
+    Rng sh = make_rng(seed, kShortenedStream);
+    const std::size_t half = games.size() / 2;
+    std::vector<int> first, second;
+    for (std::size_t i = 0; i < games.size(); ++i) {
+      (i < half ? first : second).push_back(static_cast<int>(i));
+    }
+    for (const std::vector<int>* pool : {&first, &second}) {
+      const int k = std::max(1, static_cast<int>(std::lround(SHORTENED_RATE * pool->size())));
+      for (int i : pick(*pool, k, sh)) games[static_cast<std::size_t>(i)].shortened = true;
+    }
+    Rng sc = make_rng(seed, kScoreStream);
+    for (Game& g : games) play(lg, g, sc);
+  }
   // Cut-off: the first day whose games are not yet played, so that the games before it come
   // closest to the wanted fraction.
   const double want = played_fraction * static_cast<double>(games.size());
@@ -541,6 +567,9 @@ Outcome make_games(const League& lg, std::uint64_t seed, double played_fraction)
     }
   }
   out.cutoff = best_day;
+  for (Game& g : games) {
+    if (g.day >= out.cutoff) unplay(g);
+  }
   // Postponements: games of the last two weeks before the cut-off that were rained out and
   // have no new date yet (never part of a doubleheader).
   if (out.cutoff > 0 && out.cutoff <= games.back().day) {
@@ -554,20 +583,12 @@ Outcome make_games(const League& lg, std::uint64_t seed, double played_fraction)
       }
     }
     for (int i : pick(pool, lg.postponements, ev)) {
-      games[static_cast<std::size_t>(i)].day = -1;
-      games[static_cast<std::size_t>(i)].postponed = true;
+      Game& g = games[static_cast<std::size_t>(i)];
+      unplay(g);
+      g.day = -1;
+      g.postponed = true;
     }
   }
-  std::vector<int> played;
-  for (std::size_t i = 0; i < games.size(); ++i) {
-    if (games[i].day >= 0 && games[i].day < out.cutoff) played.push_back(static_cast<int>(i));
-  }
-  const int n_short =
-      played.empty() ? 0
-                     : std::max(1, static_cast<int>(std::lround(SHORTENED_RATE * played.size())));
-  for (int i : pick(played, n_short, ev)) games[static_cast<std::size_t>(i)].shortened = true;
-  Rng sc = make_rng(seed, kScoreStream);
-  for (int i : played) play(lg, games[static_cast<std::size_t>(i)], sc);
   // Postponed games go last.
   std::stable_partition(games.begin(), games.end(), [](const Game& g) { return g.day >= 0; });
   return out;
