@@ -13,6 +13,11 @@
 
 namespace standfast::tools::gen {
 
+// Weights of the greedy's preferences (tuned by eye on the figures make_league prints).
+constexpr double BALANCE_WEIGHT = 0.004;  // per squared game of home-minus-road so far
+constexpr int STAND_SERIES = 2;           // series per homestand or road trip aimed at
+constexpr double STAND_WEIGHT = 0.15;     // pull toward that
+
 // ---------------------------------------------------------------------------------------------
 // Schedule
 
@@ -65,6 +70,16 @@ inline bool place_series(const League& lg, std::vector<Series>& series, Rng& rng
   std::vector<std::vector<int>> by_club(static_cast<std::size_t>(n));
   std::vector<int> last_met(static_cast<std::size_t>(n * n), -1000);
   std::vector<int> home_minus_road(static_cast<std::size_t>(n), 0);
+  // Homestands and road trips: the side (+1 home, -1 road) of each club's last series and how
+  // many series in a row it has played on that side.
+  std::vector<int> side(static_cast<std::size_t>(n), 0), side_run(static_cast<std::size_t>(n), 0);
+  auto stand_score = [&](int club, int s) {
+    const int last = side[static_cast<std::size_t>(club)];
+    const int run = side_run[static_cast<std::size_t>(club)];
+    if (last == 0) return 0.0;
+    if (s == last) return run < STAND_SERIES ? STAND_WEIGHT : -STAND_WEIGHT * (run - 1);
+    return run < STAND_SERIES ? -STAND_WEIGHT : STAND_WEIGHT;
+  };
   std::vector<int> last_off(static_cast<std::size_t>(n), -1);  // last day without a game
   for (std::size_t s = 0; s < series.size(); ++s) {
     series[s].start = -1;
@@ -126,7 +141,8 @@ inline bool place_series(const League& lg, std::vector<Series>& series, Rng& rng
         // Keep home and road games close to even through the season.
         const int hs = home_minus_road[static_cast<std::size_t>(sr.home)] + sr.length;
         const int as = home_minus_road[static_cast<std::size_t>(sr.away)] - sr.length;
-        score -= 0.01 * (hs * hs + as * as);
+        score -= BALANCE_WEIGHT * (hs * hs + as * as);
+        score += stand_score(sr.home, +1) + stand_score(sr.away, -1);
         if (score > best_score) {
           best_score = score;
           best = s;
@@ -137,6 +153,12 @@ inline bool place_series(const League& lg, std::vector<Series>& series, Rng& rng
       if (best_score < -0.5 && need < 1.0) continue;
       Series& sr = series[static_cast<std::size_t>(best)];
       sr.start = d;
+      for (const auto& [club, s] : {std::pair{sr.home, +1}, std::pair{sr.away, -1}}) {
+        int& last = side[static_cast<std::size_t>(club)];
+        int& run = side_run[static_cast<std::size_t>(club)];
+        run = last == s ? run + 1 : 1;
+        last = s;
+      }
       home_minus_road[static_cast<std::size_t>(sr.home)] += sr.length;
       home_minus_road[static_cast<std::size_t>(sr.away)] -= sr.length;
       for (int c : {sr.home, sr.away}) {
