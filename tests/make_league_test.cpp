@@ -293,3 +293,38 @@ TEST_CASE("the committed scenarios are what the documented commands write") {
     fs::remove_all(out);
   }
 }
+
+TEST_CASE("--outcomes writes the whole season, agreeing with the played games") {
+  const fs::path exe = fs::path(STANDFAST_BINARY_DIR) / "tools" / "make_league";
+  const fs::path out =
+      fs::temp_directory_path() / ("standfast_make_league_outcomes_" + std::to_string(::getpid()));
+  const std::string cmd = exe.string() + " --shape demo --seed 7 --played-fraction 0.3 --outcomes" +
+                          " --out " + out.string() + " > /dev/null";
+  REQUIRE(std::system(cmd.c_str()) == 0);
+  std::map<std::string, std::string> full;  // "date,home,away,game" -> the rest of the line
+  {
+    std::stringstream in(read_file(out / "outcomes.csv"));
+    std::string line;
+    std::getline(in, line);
+    while (std::getline(in, line)) {
+      std::size_t cut = 0;
+      for (int commas = 0; commas < 4; ++commas) cut = line.find(',', cut) + 1;
+      full[line.substr(0, cut)] = line.substr(cut);
+      REQUIRE(line.substr(cut, 1) != ",");  // every game has scores
+    }
+  }
+  REQUIRE(full.size() == 30 * 162 / 2);
+  std::stringstream in(read_file(out / "games.csv"));
+  std::string line;
+  std::getline(in, line);
+  int played = 0;
+  while (std::getline(in, line)) {
+    std::size_t cut = 0;
+    for (int commas = 0; commas < 4; ++commas) cut = line.find(',', cut) + 1;
+    if (line.substr(cut, 1) == ",") continue;  // not played
+    ++played;
+    REQUIRE(full[line.substr(0, cut)] == line.substr(cut));
+  }
+  REQUIRE(played > 0);
+  fs::remove_all(out);
+}

@@ -133,6 +133,7 @@ inline Outcome make_games(const League& lg, std::uint64_t seed, double played_fr
     }
   }
   out.cutoff = best_day;
+  out.full_season = games;
   for (Game& g : games) {
     if (g.day >= out.cutoff) unplay(g);
   }

@@ -99,7 +99,8 @@ inline void require(bool ok, const std::string& what) {
 
 struct Outcome {
   std::vector<Game> games;
-  int cutoff = 0;  // first day not yet played
+  std::vector<Game> full_season;  // every game played out, on its first date (the future too)
+  int cutoff = 0;                 // first day not yet played
   int schedule_attempts = 0;
   std::vector<Series> series;
 };

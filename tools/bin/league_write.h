@@ -163,9 +163,9 @@ overrides:
   return s;
 }
 
-inline std::string games_csv(const League& lg, const Outcome& out) {
+inline std::string games_csv(const League& lg, const std::vector<Game>& games) {
   std::string s = "date,home,away,game,home_runs,away_runs,innings,status\n";
-  for (const Game& g : out.games) {
+  for (const Game& g : games) {
     const std::string& h = lg.clubs[static_cast<std::size_t>(g.home)].id;
     const std::string& a = lg.clubs[static_cast<std::size_t>(g.away)].id;
     if (g.played) {

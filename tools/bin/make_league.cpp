@@ -116,12 +116,16 @@ int main(int argc, char** argv) {
   std::uint64_t seed = 2031;
   std::string out_dir;
   double fraction = 0.5;
+  bool outcomes = false;
   app.add_option("--shape", shape, "small (6 clubs, games inline) or demo (30 clubs)")
       ->check(CLI::IsMember({"small", "demo"}));
   app.add_option("--seed", seed, "random seed");
   app.add_option("--out", out_dir, "output folder (created if missing)")->required();
   app.add_option("--played-fraction", fraction, "share of the games already played")
       ->check(CLI::Range(0.0, 1.0));
+  app.add_flag("--outcomes", outcomes,
+               "also write outcomes.csv: every game played out, the remaining ones too (the "
+               "season's real end, for calibration)");
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
@@ -145,8 +149,9 @@ int main(int argc, char** argv) {
       yaml += small_rules_yaml(lg, out);
     } else {
       yaml += demo_rules_yaml();
-      write_file(dir / "games.csv", games_csv(lg, out));
+      write_file(dir / "games.csv", games_csv(lg, out.games));
     }
+    if (outcomes) write_file(dir / "outcomes.csv", games_csv(lg, out.full_season));
     write_file(dir / "season.yaml", yaml);
     write_file(dir / "truth.csv", truth_csv(lg));
     print_summary(lg, out);
