@@ -1,6 +1,8 @@
 #include "engine/seeding.h"
 
 #include <algorithm>
+#include <stdexcept>
+#include <string>
 #include <utility>
 
 namespace standfast::engine {
@@ -49,7 +51,13 @@ Seeder::Seeder(const config::Season& season)
   team_conference_.assign(n, 0);
   for (int t = 0; t < n; ++t) {
     const auto& team = season.teams[t];
-    team_division_[t] = team.division >= 0 ? group_to_division[team.division] : 0;
+    const int d = team.division >= 0 && team.division < static_cast<int>(season.groups.size())
+                      ? group_to_division[team.division]
+                      : -1;
+    if (d < 0) {
+      throw std::invalid_argument("Seeder: team " + team.id + " is in no division of the season");
+    }
+    team_division_[t] = d;
     const int conf = team.conference >= 0 ? team.conference : top_group(season, team.division);
     team_conference_[t] = conf >= 0 ? group_to_conference[conf] : 0;
   }

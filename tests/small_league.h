@@ -33,8 +33,13 @@ class SmallLeague {
     season.divisions.push_back(index);
     return index;
   }
-  // A team in a division; returns its team index.
+  // A team in a division (or in a conference that holds teams directly, which is then also a
+  // division); returns its team index.
   int team(const std::string& id, int div) {
+    if (season.groups[div].teams.empty() && season.groups[div].children.empty() &&
+        season.groups[div].parent < 0) {
+      season.divisions.push_back(div);
+    }
     config::Team t;
     t.id = id;
     t.name = "Club " + id;
