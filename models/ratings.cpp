@@ -5,6 +5,9 @@
 #include <cmath>
 #include <stdexcept>
 
+#include "models/fit_report.h"
+#include "models/optimize.h"
+
 namespace standfast::models {
 
 double LeagueRatings::expected_runs(int batting, int fielding, double run_factor,
@@ -19,50 +22,111 @@ double LeagueRatings::expected_runs(int batting, int fielding, double run_factor
          (batting_at_home ? home_edge : 1.0);
 }
 
-// Provisional: runs per game relative to the league (replaced by the maximum-likelihood fit).
-LeagueRatings fit_ratings(const config::Season& season) {
-  const int n = static_cast<int>(season.teams.size());
-  LeagueRatings out;
-  out.family = season.model.family;
-  out.shape = season.model.shape.value_or(1.8);
-  out.home_edge = season.model.home_edge.value_or(1.0);
-  out.teams.assign(n, TeamRating{});
-  out.cholesky.assign(4 * n * n, 0.0);
-  if (out.family == config::ScoreFamily::kLog5) return out;
-  std::vector<double> rs(n), ra(n), games(n);
-  double total = 0;
-  int sides = 0;
-  for (const auto& g : season.games) {
-    if (!g.played) continue;
-    if (g.home < 0 || g.home >= n || g.away < 0 || g.away >= n) {
-      throw std::domain_error("fit_ratings: game with a team index out of range");
-    }
-    rs[g.home] += g.home_runs;
-    ra[g.home] += g.away_runs;
-    rs[g.away] += g.away_runs;
-    ra[g.away] += g.home_runs;
-    games[g.home] += 1;
-    games[g.away] += 1;
-    total += g.home_runs + g.away_runs;
-    sides += 2;
-    ++out.games_fitted;
-  }
-  if (sides == 0) return out;
-  out.league_mean = total / sides;
-  const double k = season.model.shrink_games;
+namespace {
+
+// Defaults when nothing can be fitted (no game played yet).
+// league mean 4.5 runs per side: from memory (typical of professional baseball);
+// Weibull gamma 1.82: Miller (2007) best fit, REFERENCE_VALUES.md section 11;
+// negative-binomial size 10: from memory (variance about 1.5 x mean at 4.5 runs).
+constexpr double DEFAULT_MEAN = 4.5;
+constexpr double DEFAULT_GAMMA = 1.82;
+constexpr double DEFAULT_SIZE = 10.0;
+
+LeagueRatings from_fit(const JointFit& f, config::ScoreFamily family) {
+  LeagueRatings r;
+  const int n = f.teams;
+  r.family = family;
+  r.league_mean = std::exp(f.log_mean);
+  r.shape = f.shape;
+  r.home_edge = std::exp(f.log_home);
+  r.league_mean_se = r.league_mean * f.se(JointFit::LOG_MEAN);
+  r.home_edge_se = r.home_edge * f.se(JointFit::LOG_HOME);
+  r.shape_se = r.shape * f.se(f.log_shape_index());
+  r.log_lik = f.log_lik;
+  r.converged = f.converged;
+  r.teams.resize(n);
   for (int i = 0; i < n; ++i) {
-    auto& t = out.teams[i];
-    const double w = games[i] / (games[i] + k + 1e-300);
-    if (games[i] > 0) {
-      t.offence = std::pow(rs[i] / games[i] / out.league_mean, w);
-      t.defence = std::pow(ra[i] / games[i] / out.league_mean, w);
-    }
-    t.log_offence_se = std::sqrt(0.4 / (games[i] + k + 1e-9));
-    t.log_defence_se = t.log_offence_se;
-    out.cholesky[i * 2 * n + i] = t.log_offence_se;
-    out.cholesky[(n + i) * 2 * n + n + i] = t.log_defence_se;
+    r.teams[i].offence = std::exp(f.log_offence[i]);
+    r.teams[i].defence = std::exp(f.log_defence[i]);
+    r.teams[i].log_offence_se = f.se(f.offence_index(i));
+    r.teams[i].log_defence_se = f.se(f.defence_index(i));
   }
+  // Covariance block of (log offence, log defence): rows 2 .. 2 + 2n of the fit's covariance.
+  const int d = f.dimension(), m = 2 * n;
+  std::vector<double> block(static_cast<size_t>(m) * m);
+  for (int a = 0; a < m; ++a) {
+    for (int b = 0; b < m; ++b)
+      block[static_cast<size_t>(a) * m + b] = f.covariance[static_cast<size_t>(a + 2) * d + b + 2];
+  }
+  r.cholesky = psd_cholesky(block, m);
+  return r;
+}
+
+}  // namespace
+
+RatingsFit fit_ratings_detail(const config::Season& season) {
+  const auto& spec = season.model;
+  const int n = static_cast<int>(season.teams.size());
+  if (!(spec.shrink_games >= 0.0) || !std::isfinite(spec.shrink_games)) {
+    throw std::domain_error(
+        fmt::format("fit_ratings: shrink_games must be >= 0, got {}", spec.shrink_games));
+  }
+  RatingsFit out;
+  out.sides = played_sides(season);
+  LeagueRatings& r = out.ratings;
+  r.family = spec.family;
+  r.teams.assign(n, TeamRating{});
+  r.cholesky.assign(static_cast<size_t>(4) * n * n, 0.0);
+  for (const auto& g : season.games) r.games_fitted += g.played ? 1 : 0;
+  if (spec.family == config::ScoreFamily::kLog5) {
+    r.shape = 0.0;
+    r.home_edge = spec.home_edge.value_or(1.0);
+    return out;
+  }
+  if (out.sides.empty()) {
+    // Nothing played: league defaults; the prior alone gives the uncertainty.
+    r.league_mean = DEFAULT_MEAN;
+    r.shape = spec.family == config::ScoreFamily::kWeibull ? spec.shape.value_or(DEFAULT_GAMMA)
+              : spec.family == config::ScoreFamily::kNegativeBinomial
+                  ? spec.shape.value_or(DEFAULT_SIZE)
+                  : 0.0;
+    r.home_edge = spec.home_edge.value_or(1.0);
+    if (spec.shrink_games > 0.0) {
+      out.info_per_side = information_per_side(spec.family, r.league_mean, r.shape);
+      out.prior_precision = spec.shrink_games * out.info_per_side;
+      const double se = 1.0 / std::sqrt(out.prior_precision);
+      for (int i = 0; i < n; ++i) {
+        r.teams[i].log_offence_se = r.teams[i].log_defence_se = se;
+        r.cholesky[static_cast<size_t>(i) * 2 * n + i] = se;
+        r.cholesky[static_cast<size_t>(n + i) * 2 * n + n + i] = se;
+      }
+    }
+    return out;
+  }
+  JointOptions o;
+  o.family = spec.family;
+  o.shape = spec.family == config::ScoreFamily::kPoisson ? std::nullopt : spec.shape;
+  o.home_edge = spec.home_edge;
+  // The maximum-likelihood fit (a vanishing prior keeps a team without games defined).
+  o.prior_precision = spec.shrink_games > 0.0 ? 1e-9 : 0.0;
+  out.mle = fit_joint(out.sides, n, o);
+  out.info_per_side =
+      information_per_side(spec.family, std::exp(out.mle->log_mean), out.mle->shape);
+  if (spec.shrink_games > 0.0) {
+    // A prior worth `shrink_games` games of league-average scoring on each log rating.
+    out.prior_precision = spec.shrink_games * out.info_per_side;
+    o.prior_precision = out.prior_precision;
+    out.shrunk = fit_joint(out.sides, n, o);
+  }
+  const JointFit& used = out.shrunk ? *out.shrunk : *out.mle;
+  const int games = r.games_fitted;
+  r = from_fit(used, spec.family);
+  r.games_fitted = games;
   return out;
+}
+
+LeagueRatings fit_ratings(const config::Season& season) {
+  return fit_ratings_detail(season).ratings;
 }
 
 }  // namespace standfast::models
