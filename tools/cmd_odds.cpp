@@ -1,11 +1,134 @@
-// Placeholder until the owning work lands: the subcommand exists but refuses to run.
+// `standfast odds SEASON_FILE`: the main job. Loads and validates the season, fits the ratings
+// (or takes the file's overrides), simulates the remaining season and the postseason many times,
+// and writes the odds by division as a table, CSV or JSON (tools/ODDS.md).
+#include <fmt/core.h>
+
+#include <algorithm>
+#include <cstdint>
+#include <stdexcept>
+#include <string>
+
+#include "config/load.h"
+#include "engine/clinch.h"
+#include "engine/plan.h"
+#include "engine/simulate.h"
+#include "models/ratings.h"
 #include "tools/commands.h"
+#include "tools/odds_report.h"
+#include "tools/output.h"
+#include "tools/progress.h"
 
 namespace standfast::tools {
+namespace {
+
+// The default seed: fixed, so two runs with the same options print the same numbers.
+constexpr std::uint64_t DEFAULT_SEED = 20260101;
+constexpr std::uint64_t DEFAULT_SEASONS = 100000;
+constexpr std::uint64_t MAX_SEASONS = 1'000'000'000;
+
+struct OddsOptions {
+  std::string season_file;
+  std::uint64_t seasons = DEFAULT_SEASONS;
+  std::uint64_t seed = DEFAULT_SEED;
+  double target_se = 0.0;
+  int threads = 0;
+  std::string format = "table";
+  std::string output;
+  std::string group;
+};
+
+void run_odds(const OddsOptions& opt) {
+  // Check every option before the (possibly long) run.
+  const Format format = parse_format(opt.format);
+  if (opt.seasons < 1 || opt.seasons > MAX_SEASONS) {
+    throw UsageError(fmt::format("--seasons: expected 1 to {}, got {}", MAX_SEASONS, opt.seasons));
+  }
+  if (!(opt.target_se >= 0.0 && opt.target_se < 0.5)) {
+    throw UsageError(
+        fmt::format("--target-se: expected 0 (off) or a value in (0, 0.5), got {}", opt.target_se));
+  }
+  if (opt.threads < 0) {
+    throw UsageError(fmt::format("--threads: expected 0 (all cores) or more, got {}", opt.threads));
+  }
+
+  const config::Season season = config::load_season(opt.season_file);
+  for (const auto& w : season.warnings) {
+    fmt::print(stderr, "warning: {}\n", config::format_diagnostic(w));
+  }
+  if (!opt.group.empty() &&
+      std::none_of(season.groups.begin(), season.groups.end(),
+                   [&](const config::Group& g) { return g.id == opt.group; })) {
+    throw UsageError(fmt::format("--group: no conference or division of {} has the id '{}'",
+                                 opt.season_file, opt.group));
+  }
+
+  // Problems the validator cannot see (a fit that has nothing to work with, a plan that does
+  // not fit the ratings) are still bad input: exit status 2 through UsageError.
+  engine::Plan plan;
+  try {
+    const models::LeagueRatings ratings = models::fit_ratings(season);
+    plan = engine::compile_plan(season, ratings);
+  } catch (const std::domain_error& e) {
+    throw UsageError(fmt::format("{}: cannot fit the ratings: {}", opt.season_file, e.what()));
+  } catch (const std::invalid_argument& e) {
+    throw UsageError(fmt::format("{}: cannot build the simulation: {}", opt.season_file, e.what()));
+  }
+
+  const auto records = engine::clinch_records(season);
+  const auto marks = engine::simple_clinch(season, records);
+
+  ProgressBar bar;
+  engine::RunOptions run;
+  run.seed = opt.seed;
+  run.seasons = opt.seasons;
+  run.target_se = opt.target_se;
+  run.threads = opt.threads;
+  run.progress = [&bar](std::uint64_t done, std::uint64_t total) { bar.update(done, total); };
+  const engine::SimulationResult result = engine::simulate(plan, run);
+  bar.finish();
+
+  const OddsReport report =
+      make_odds_report(season, result, records, marks, opt.target_se, opt.group);
+  std::string text;
+  switch (format) {
+    case Format::kTable:
+      text = write_odds_table(report);
+      break;
+    case Format::kCsv:
+      text = write_odds_csv(report);
+      break;
+    case Format::kJson:
+      text = write_odds_json(report);
+      break;
+  }
+  write_output(opt.output, text);
+}
+
+}  // namespace
 
 void add_odds_command(CLI::App& app) {
-  auto* cmd = app.add_subcommand("odds", "(not built yet)");
-  cmd->callback([] { throw UsageError("the 'odds' command is not built yet"); });
+  auto opt = std::make_shared<OddsOptions>();
+  auto* cmd = app.add_subcommand(
+      "odds",
+      "Simulate the rest of the season and print each team's chances of the division, a "
+      "postseason berth, a bye and the title, with its projected record.");
+  cmd->add_option("season", opt->season_file, "Season file (YAML)")->required();
+  cmd->add_option("--seasons", opt->seasons,
+                  fmt::format("Number of simulated seasons (default {})", DEFAULT_SEASONS));
+  cmd->add_option("--seed", opt->seed,
+                  fmt::format("Random seed; the same seed gives the same output for any thread "
+                              "count (default {})",
+                              DEFAULT_SEED));
+  cmd->add_option("--target-se", opt->target_se,
+                  "Stop early once the largest standard error of any chance is below this "
+                  "(a probability, e.g. 0.002; default 0 = run every season)");
+  cmd->add_option("--threads", opt->threads, "Worker threads (default 0 = all cores)");
+  cmd->add_option("--format", opt->format, "Output format: table, csv or json (default table)");
+  cmd->add_option("-o,--output", opt->output,
+                  "Write to this file (whole or not at all) instead of standard output");
+  cmd->add_option("--group", opt->group,
+                  "Only the teams of this conference or division (its id in the season file)");
+  cmd->callback([opt] { run_odds(*opt); });
 }
 
 }  // namespace standfast::tools
