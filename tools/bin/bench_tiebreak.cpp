@@ -78,11 +78,6 @@ config::Season synthetic_league() {
   return s;
 }
 
-// Season files are read once the config loader is on main; until then only the synthetic league.
-config::Season load(const std::string& file) {
-  throw std::runtime_error(file + ": reading season files is not available in this build yet");
-}
-
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -90,20 +85,24 @@ int main(int argc, char** argv) {
   std::string season_file;
   long rankings = 2'000'000;
   int records = 64;
+  bool synthetic = false;
   app.add_option("--season", season_file, "season file (default: the demo scenario if present)");
+  app.add_flag("--synthetic", synthetic, "use the synthetic league with many ties");
   app.add_option("--rankings", rankings, "rankings to time")->check(CLI::PositiveNumber);
   app.add_option("--records", records, "distinct simulated records to cycle through")
       ->check(CLI::Range(1, 100000));
   CLI11_PARSE(app, argc, argv);
   try {
-    if (season_file.empty()) {
+    if (season_file.empty() && !synthetic) {
       for (const char* p : {"scenarios/demo/season.yaml", "../scenarios/demo/season.yaml"}) {
         if (std::filesystem::exists(p)) season_file = p;
       }
     }
-    config::Season season = season_file.empty() ? synthetic_league() : load(season_file);
+    config::Season season =
+        season_file.empty() ? synthetic_league() : config::load_season(season_file);
     const engine::SeasonRecord played = engine::played_record(season);
 
+    const int n = static_cast<int>(season.teams.size());
     // K simulated season-ends: the played record plus random results for every remaining game
     // (synthetic league: 16 random games per team, so many records are equal).
     std::vector<engine::SeasonRecord> ends(records, played);
@@ -112,7 +111,6 @@ int main(int argc, char** argv) {
     for (const auto& g : season.games) {
       if (!g.played || !g.date) remaining.emplace_back(g.home, g.away);
     }
-    const int n = static_cast<int>(season.teams.size());
     if (season_file.empty()) {
       for (int t = 0; t < n; ++t) {
         for (int k = 0; k < 8; ++k)
@@ -158,9 +156,12 @@ int main(int argc, char** argv) {
                cpu, wall, checksum);
     fmt::print("rankings per second: {:.0f}\n", static_cast<double>(rankings) / secs);
     fmt::print("ns per ranking: {:.1f}\n", secs * 1e9 / static_cast<double>(rankings));
+  } catch (const config::ConfigError& e) {
+    fmt::print(stderr, "{}\n", e.what());
+    return 2;
   } catch (const std::exception& e) {
     fmt::print(stderr, "error: {}\n", e.what());
-    return 2;
+    return 1;
   }
   return 0;
 }
