@@ -1,0 +1,130 @@
+// Tests of the `standfast standings` command: runs the built program on the invented scenarios.
+// References: exit statuses of the program's contract (0 success, 2 bad input; DESIGN.md), JSON
+// and CSV parsed back (nlohmann-json 3.11, Debian 12), and wins, losses and runs recounted here
+// straight from the season's game list (config loader), independently of engine/standings.
+#include <sys/wait.h>
+
+#include <catch2/catch.hpp>
+#include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <map>
+#include <nlohmann/json.hpp>
+#include <sstream>
+#include <string>
+
+#include "config/load.h"
+
+namespace fs = std::filesystem;
+
+namespace {
+
+const std::string PROGRAM = STANDFAST_BINARY_DIR "/tools/standfast";
+const std::string DEMO = STANDFAST_SOURCE_DIR "/scenarios/demo/season.yaml";
+const std::string SMALL = STANDFAST_SOURCE_DIR "/scenarios/small/season.yaml";
+
+struct Run {
+  int status = -1;
+  std::string out;
+};
+
+Run run(const std::string& args) {
+  const std::string command = PROGRAM + " " + args + " 2>/dev/null";
+  Run r;
+  FILE* pipe = ::popen(command.c_str(), "r");
+  REQUIRE(pipe != nullptr);
+  char buffer[4096];
+  for (std::size_t n; (n = std::fread(buffer, 1, sizeof buffer, pipe)) > 0;)
+    r.out.append(buffer, n);
+  const int raw = ::pclose(pipe);
+  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
+  return r;
+}
+
+struct Count {
+  int wins = 0, losses = 0, runs_for = 0, runs_against = 0;
+};
+
+// Wins, losses and runs per team id from the played games with a known date.
+std::map<std::string, Count> recount(const standfast::config::Season& s) {
+  std::map<std::string, Count> out;
+  for (const auto& g : s.games) {
+    if (!g.played || !g.date) continue;
+    auto& h = out[s.teams[static_cast<std::size_t>(g.home)].id];
+    auto& a = out[s.teams[static_cast<std::size_t>(g.away)].id];
+    (g.home_runs > g.away_runs ? h.wins : h.losses)++;
+    (g.home_runs > g.away_runs ? a.losses : a.wins)++;
+    h.runs_for += g.home_runs;
+    h.runs_against += g.away_runs;
+    a.runs_for += g.away_runs;
+    a.runs_against += g.home_runs;
+  }
+  return out;
+}
+
+}  // namespace
+
+TEST_CASE("standings JSON agrees with a recount of the game list") {
+  const Run r = run("standings " + DEMO + " --format json");
+  REQUIRE(r.status == 0);
+  const auto doc = nlohmann::json::parse(r.out);
+  REQUIRE(doc.at("schema_version") == 1);
+  const auto season = standfast::config::load_season(DEMO);
+  const auto expected = recount(season);
+  std::size_t teams = 0;
+  for (const auto& c : doc.at("conferences")) {
+    for (const auto& d : c.at("divisions")) {
+      double prev_pct = 2.0;
+      for (const auto& t : d.at("teams")) {
+        ++teams;
+        const auto& e = expected.at(t.at("id").get<std::string>());
+        CHECK(t.at("wins") == e.wins);
+        CHECK(t.at("losses") == e.losses);
+        CHECK(t.at("runs_for") == e.runs_for);
+        CHECK(t.at("runs_against") == e.runs_against);
+        // Ranked by winning percentage within the division.
+        const double pct = t.at("win_pct").get<double>();
+        CHECK(pct <= prev_pct);
+        prev_pct = pct;
+      }
+      CHECK(d.at("teams").front().at("games_back") == 0.0);
+    }
+    // The field: the seeds of the conference's qualifying rules (3 division winners and 3
+    // at-large teams in the demo league).
+    CHECK(c.at("postseason_field").size() == 6);
+  }
+  REQUIRE(teams == season.teams.size());
+}
+
+TEST_CASE("standings table and CSV") {
+  const Run t = run("standings " + SMALL);
+  REQUIRE(t.status == 0);
+  CHECK(t.out.find("Won") != std::string::npos);
+  CHECK(t.out.find("Postseason field") != std::string::npos);
+  const Run c = run("standings " + SMALL + " --format csv");
+  REQUIRE(c.status == 0);
+  std::istringstream lines(c.out);
+  std::string line;
+  int rows = 0;
+  std::getline(lines, line);
+  CHECK(line.rfind("conference,division,place,team_id", 0) == 0);
+  while (std::getline(lines, line)) ++rows;
+  CHECK(rows == static_cast<int>(standfast::config::load_season(SMALL).teams.size()));
+}
+
+TEST_CASE("standings output goes to a file whole; bad input exits 2") {
+  const fs::path dir = fs::path(STANDFAST_BINARY_DIR) / "standings_cli_test";
+  fs::remove_all(dir);
+  fs::create_directories(dir);
+  const fs::path out = dir / "standings.json";
+  REQUIRE(run("standings " + SMALL + " --format json --output " + out.string()).status == 0);
+  std::ifstream in(out);
+  std::stringstream text;
+  text << in.rdbuf();
+  REQUIRE(nlohmann::json::parse(text.str()).at("schema_version") == 1);
+  CHECK(run("standings " + SMALL + " --format xml").status == 2);
+  CHECK(run("standings " + (dir / "missing.yaml").string()).status == 2);
+  CHECK(run("standings " + SMALL + " --output " + (dir / "no" / "such" / "dir.txt").string())
+            .status == 2);
+  CHECK_FALSE(fs::exists(dir / "no"));
+}
