@@ -1,14 +1,18 @@
 // Tests for engine/clinch.h: the simple (sufficient) clinch and elimination marks.
 // References: the magic number M = G + 1 - W_leader - L_chaser (common practice; Wikipedia
-// "Magic number (sports)", Derivation; REFERENCE_VALUES.md section 7), and small standings
-// worked by hand below (each case states the counting that decides it).
+// "Magic number (sports)", Derivation; REFERENCE_VALUES.md section 7), small standings worked
+// by hand below (each case states the counting that decides it), and exhaustive enumeration of
+// every remaining result in random small leagues (a mark must hold in every case).
 #include "engine/clinch.h"
 
 #include <fmt/core.h>
 
+#include <algorithm>
 #include <catch2/catch.hpp>
 #include <string>
 #include <vector>
+
+#include "engine/rng.h"
 
 using standfast::config::Game;
 using standfast::config::Group;
@@ -211,4 +215,116 @@ TEST_CASE("records count played wins and losses and every unplayed game") {
   CHECK(r[2].wins == 2);
   CHECK(r[2].losses == 0);
   CHECK(r[2].remaining == 1);
+}
+
+namespace {
+
+// Exact outcome of one finished season for team `a`, by brute force. The league ranks by
+// winning percentage (a team with no games counts .500, as in engine/tiebreak.h); `a_wins_ties`
+// puts team a above every team level with it (else below); other ties go by team index (which of
+// two level teams wins a division cannot change how many teams rank above a, so their order does
+// not matter to a).
+struct Outcome {
+  bool division = false;
+  bool berth = false;
+};
+
+Outcome finish(const Season& s, const std::vector<int>& wins, const std::vector<int>& games, int a,
+               bool a_wins_ties) {
+  const int n = static_cast<int>(wins.size());
+  auto above = [&](int x, int y) {  // x ranks above y; no games at all counts .500
+    const long wx = games[x] ? 2L * wins[x] : 1, gx = games[x] ? 2L * games[x] : 2;
+    const long wy = games[y] ? 2L * wins[y] : 1, gy = games[y] ? 2L * games[y] : 2;
+    const long lhs = wx * gy;
+    const long rhs = wy * gx;
+    if (lhs != rhs) return lhs > rhs;
+    if (x == a) return a_wins_ties;
+    if (y == a) return !a_wins_ties;
+    return x < y;
+  };
+  const Qualifying& q = s.postseason.qualifying[0];
+  std::vector<int> winners;
+  std::vector<bool> is_winner(n, false);
+  for (int d : s.divisions) {
+    int best = -1;
+    for (int t : s.groups[d].teams) {
+      if (best < 0 || above(t, best)) best = t;
+    }
+    winners.push_back(best);
+  }
+  Outcome o;
+  o.division = std::find(winners.begin(), winners.end(), a) != winners.end();
+  std::sort(winners.begin(), winners.end(), above);
+  std::vector<bool> in(n, false);
+  for (int k = 0; k < q.division_winners && k < static_cast<int>(winners.size()); ++k) {
+    in[winners[k]] = true;
+  }
+  std::vector<int> pool;
+  for (int t = 0; t < n; ++t) {
+    if (!in[t]) pool.push_back(t);
+  }
+  std::sort(pool.begin(), pool.end(), above);
+  for (int k = 0; k < q.at_large && k < static_cast<int>(pool.size()); ++k) in[pool[k]] = true;
+  o.berth = in[a];
+  return o;
+}
+
+}  // namespace
+
+TEST_CASE("every mark is confirmed by enumerating all remaining results") {
+  // Reference: exhaustive enumeration of every outcome of the remaining games (2^K cases) in
+  // random small leagues, with ties resolved against the team (for clinches) or for it (for
+  // eliminations). A mark must hold in every case; the marks are sufficient conditions, so the
+  // converse is not required. The leagues are drawn from a fixed stream.
+  auto rng = standfast::engine::make_stream(4242, 0, standfast::engine::Purpose::kGames);
+  int clinch_marks = 0, elimination_marks = 0;
+  for (int trial = 0; trial < 300; ++trial) {
+    const bool few_winners = trial % 3 == 2;  // 1 of 2 division winners qualifies
+    Season s = few_winners ? league({{3, 3}}, 1, 1) : league({{3, 2, 2}}, 3, 1);
+    const int n = static_cast<int>(s.teams.size());
+    std::vector<ClinchRecord> r(n);
+    for (auto& x : r) {
+      x.wins = static_cast<int>(standfast::engine::uniform_below(rng, 8));
+      x.losses = static_cast<int>(standfast::engine::uniform_below(rng, 8));
+    }
+    const int k = 6 + static_cast<int>(standfast::engine::uniform_below(rng, 5));
+    std::vector<std::pair<int, int>> left;
+    while (static_cast<int>(left.size()) < k) {
+      const int h = static_cast<int>(standfast::engine::uniform_below(rng, n));
+      const int v = static_cast<int>(standfast::engine::uniform_below(rng, n));
+      if (h == v) continue;
+      left.emplace_back(h, v);
+      ++r[h].remaining;
+      ++r[v].remaining;
+    }
+    const auto marks = simple_clinch(s, r);
+    std::vector<int> games(n);
+    for (int t = 0; t < n; ++t) games[t] = r[t].wins + r[t].losses + r[t].remaining;
+    for (int a = 0; a < n; ++a) {
+      bool always_div = true, never_div = true, always_berth = true, never_berth = true;
+      for (unsigned mask = 0; mask < (1u << k); ++mask) {
+        std::vector<int> wins(n);
+        for (int t = 0; t < n; ++t) wins[t] = r[t].wins;
+        for (int g = 0; g < k; ++g) ++wins[(mask >> g) & 1u ? left[g].first : left[g].second];
+        const Outcome worst = finish(s, wins, games, a, false);
+        const Outcome best = finish(s, wins, games, a, true);
+        always_div = always_div && worst.division;
+        always_berth = always_berth && worst.berth;
+        never_div = never_div && !best.division;
+        never_berth = never_berth && !best.berth;
+      }
+      INFO("trial " << trial << " team " << a);
+      if (marks[a].division == Certainty::kClinched) CHECK(always_div);
+      if (marks[a].division == Certainty::kEliminated) CHECK(never_div);
+      if (marks[a].berth == Certainty::kClinched) CHECK(always_berth);
+      if (marks[a].berth == Certainty::kEliminated) CHECK(never_berth);
+      clinch_marks +=
+          (marks[a].division == Certainty::kClinched) + (marks[a].berth == Certainty::kClinched);
+      elimination_marks += (marks[a].division == Certainty::kEliminated) +
+                           (marks[a].berth == Certainty::kEliminated);
+    }
+  }
+  // The check is not vacuous: both kinds of mark occur many times.
+  CHECK(clinch_marks > 50);
+  CHECK(elimination_marks > 50);
 }
