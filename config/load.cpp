@@ -117,8 +117,8 @@ Season load_season_text(const std::string& yaml_text, const std::filesystem::pat
     std::string why;
     const auto csv = read_file(csv_path, why);
     if (!csv) {
-      report.error(yaml.games_file_pos,
-                   "games_file: cannot read " + detail::quoted(csv_path.string()) + ": " + why);
+      report.error(yaml.games_file_pos, "games_file: cannot read " +
+                                            detail::quoted(csv_path.string(), 4096) + ": " + why);
     } else {
       detail::read_games_csv(*csv, csv_path.string(), yaml.teams, season, report);
     }

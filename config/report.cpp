@@ -14,12 +14,11 @@ void Report::warning(SourcePos pos, std::string message) {
   warnings_.push_back(Diagnostic{std::move(pos), std::move(message)});
 }
 
-std::string quoted(std::string_view text) {
-  constexpr std::size_t MAX_SHOWN = 40;
+std::string quoted(std::string_view text, std::size_t max_shown) {
   std::string out = "'";
   std::size_t shown = 0;
   for (const char ch : text) {
-    if (shown == MAX_SHOWN) {
+    if (shown == max_shown) {
       out += "...";
       break;
     }

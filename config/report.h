@@ -26,8 +26,8 @@ class Report {
 };
 
 // User text for a message: in single quotes, control and non-ASCII bytes escaped as \xNN, cut
-// after 40 characters.
-std::string quoted(std::string_view text);
+// after `max_shown` characters.
+std::string quoted(std::string_view text, std::size_t max_shown = 40);
 
 // Strips spaces and tabs at both ends.
 std::string_view trim(std::string_view text);
