@@ -82,6 +82,9 @@ std::optional<bool> parse_boolean(std::string_view text) {
 std::string not_integer_message(std::string_view text) {
   const auto real = parse_real(text);
   if (real && std::isnan(*real)) return "must be a whole number, got nan";
+  if (real && *real == std::floor(*real)) {
+    return "must be a whole number within range, got " + std::string(trim(text));
+  }
   if (real) return "must be a whole number, got " + std::string(trim(text));
   if (trim(text).empty()) return "must be a whole number, got nothing";
   return "must be a whole number, got " + quoted(text);

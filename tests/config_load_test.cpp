@@ -447,3 +447,41 @@ TEST_CASE("bad input never crashes: empty, a list, binary junk") {
     CHECK_THAT(e.what(), Contains("no-such-file.yaml: cannot read the season file"));
   }
 }
+
+TEST_CASE("keys given twice, huge numbers and malformed groups are refused") {
+  std::string yaml = BASE;
+  yaml.replace(yaml.find("season: Y1}"), 11, "season: Y1, innings: 99999999999999999999}");
+  CHECK(errors_of(yaml) ==
+        "t.yaml:2:50: league.innings: must be a whole number within range, got "
+        "99999999999999999999");
+  CHECK(errors_of(BASE + "model: {family: poisson, family: log5}\n") ==
+        "t.yaml:14:26: key 'family' is given twice in model");
+  yaml = BASE;
+  yaml.replace(yaml.find("    teams: [CCC, DDD]"), 21,
+               "    teams: [CCC, DDD]\n    groups: [{id: w1, teams: [CCC]}]");
+  CHECK_THAT(
+      errors_of(yaml),
+      Contains("t.yaml:12:5: groups[1]: a group lists either `groups` or `teams`, not both"));
+  yaml = BASE;
+  yaml.replace(yaml.find("      - {id: east-a, teams: [AAA, BBB]}"), 39, "      - {id: east-a}");
+  CHECK_THAT(errors_of(yaml), Contains("t.yaml:11:9: groups[0].groups[0]: a group needs `groups` "
+                                       "(sub-groups) or `teams` (a division)"));
+}
+
+TEST_CASE("three conference brackets cannot end in one final") {
+  const std::string yaml =
+      "standfast: 1\n"
+      "league: {name: Test League, season: Y1}\n"
+      "teams: [{id: A, name: A}, {id: B, name: B}, {id: C, name: C}]\n"
+      "groups: [{id: x, teams: [A]}, {id: y, teams: [B]}, {id: z, teams: [C]}]\n"
+      "postseason: {format: conference_brackets, rounds: [{best_of: 1}]}\n";
+  CHECK_THAT(errors_of(yaml),
+             Contains("t.yaml:5:22: postseason.format: conference_brackets with 3 conferences "
+                      "cannot end in one final"));
+  std::string single = yaml;
+  single.replace(single.find("conference_brackets"), 19, "single_bracket");
+  single.replace(single.find("[{best_of: 1}]"), 14, "[{best_of: 1}, {best_of: 1}]");
+  CHECK_THAT(errors_of(single),
+             Contains("t.yaml:5:13: postseason: the bracket cannot reduce to one "
+                      "team: a field of 3 teams with 0 byes"));
+}
