@@ -1,0 +1,100 @@
+// Tests of the `standfast fit` command (tools/cmd_fit.cpp) on the committed small scenario.
+// References: the JSON output is parsed with nlohmann-json and compared with the library's own
+// fit_report (the numbers themselves are checked against SciPy and Boost.Math in the other
+// models_*_test files); exit statuses as the common rules state (2 for bad input).
+#include <fmt/core.h>
+#include <sys/wait.h>
+
+#include <catch2/catch.hpp>
+#include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <nlohmann/json.hpp>
+#include <sstream>
+#include <string>
+
+#include "config/load.h"
+#include "models/fit_report.h"
+
+namespace {
+
+const std::string PROGRAM = STANDFAST_BINARY_DIR "/tools/standfast";
+const std::string SMALL = STANDFAST_SOURCE_DIR "/scenarios/small/season.yaml";
+
+struct Run {
+  int status = -1;
+  std::string out;
+};
+
+Run run(const std::string& args) {
+  Run r;
+  FILE* pipe = ::popen((PROGRAM + " " + args + " 2>&1").c_str(), "r");
+  if (pipe == nullptr) return r;
+  char buf[4096];
+  size_t n;
+  while ((n = fread(buf, 1, sizeof buf, pipe)) > 0) r.out.append(buf, n);
+  const int st = ::pclose(pipe);
+  r.status = WIFEXITED(st) ? WEXITSTATUS(st) : -1;
+  return r;
+}
+
+}  // namespace
+
+TEST_CASE("fit --format json carries the schema version and the library's numbers") {
+  const Run r = run("fit " + SMALL + " --format json");
+  REQUIRE(r.status == 0);
+  const auto j = nlohmann::json::parse(r.out);
+  CHECK(j["schema_version"] == 1);
+  const auto season = standfast::config::load_season(SMALL);
+  const auto rep = standfast::models::fit_report(season);
+  REQUIRE(j["teams"].size() == season.teams.size());
+  CHECK(j["league"]["shape"].get<double>() == Approx(rep.ratings.shape).epsilon(1e-12));
+  CHECK(j["league"]["home_edge"].get<double>() == Approx(rep.ratings.home_edge).epsilon(1e-12));
+  for (size_t i = 0; i < season.teams.size(); ++i) {
+    CHECK(j["teams"][i]["team"] == season.teams[i].id);
+    CHECK(j["teams"][i]["adjusted"]["offence"].get<double>() ==
+          Approx(rep.teams[i].offence).epsilon(1e-12));
+    CHECK(j["teams"][i]["wins"].get<int>() == rep.teams[i].wins);
+  }
+  CHECK(j["families"].size() == 3);
+}
+
+TEST_CASE("fit --format csv has three labelled blocks; table and --output work") {
+  const Run r = run("fit " + SMALL + " --format csv");
+  REQUIRE(r.status == 0);
+  std::istringstream in(r.out);
+  std::string line;
+  int league = 0, team = 0, family = 0, blank = 0;
+  while (std::getline(in, line)) {
+    if (line.empty()) ++blank;
+    if (line.rfind("league,", 0) == 0) ++league;
+    if (line.rfind("team,", 0) == 0) ++team;
+    if (line.rfind("family,", 0) == 0) ++family;
+  }
+  CHECK(league == 1);
+  CHECK(team == 6);
+  CHECK(family == 3);
+  CHECK(blank == 2);
+  const Run t = run("fit " + SMALL);
+  REQUIRE(t.status == 0);
+  CHECK(t.out.find("Goodness of fit") != std::string::npos);
+  CHECK(t.out.find("Pythagorean expectation") != std::string::npos);
+  const std::string path = std::string(STANDFAST_BINARY_DIR) + "/models_fit_command_out.json";
+  std::filesystem::remove(path);
+  REQUIRE(run("fit " + SMALL + " --format json --output " + path).status == 0);
+  std::ifstream f(path);
+  REQUIRE(f.good());
+  CHECK(nlohmann::json::parse(f)["schema_version"] == 1);
+}
+
+TEST_CASE("fit reports bad input with status 2 and names the file") {
+  const Run missing = run("fit /nonexistent/season.yaml");
+  CHECK(missing.status == 2);
+  CHECK(missing.out.find("/nonexistent/season.yaml") != std::string::npos);
+  const Run format = run("fit " + SMALL + " --format xml");
+  CHECK(format.status == 2);
+  CHECK(format.out.find("--format") != std::string::npos);
+  const Run alpha = run("fit " + SMALL + " --alpha 2");
+  CHECK(alpha.status == 2);
+  CHECK(alpha.out.find("--alpha") != std::string::npos);
+}
