@@ -149,9 +149,10 @@ TEST_CASE("defaults apply when optional sections are absent") {
 }
 
 TEST_CASE("a YAML syntax error names the file and line") {
-  const std::string e = errors_of("standfast: 1\nleague: {name: x, season: y\nteams: []\n");
-  CHECK_THAT(e, Contains("t.yaml:"));
-  CHECK_THAT(e, Contains("YAML syntax error"));
+  CHECK(errors_of("standfast: 1\nleague:\n  name: x\n   season: y\n") ==
+        "t.yaml:4:10: YAML syntax error: illegal map value");
+  CHECK(errors_of("standfast: 1\nleague: {name: x, season: y\nteams: []\n") ==
+        "t.yaml:3:6: YAML syntax error: end of map flow not found");
 }
 
 TEST_CASE("an unknown key is reported with a suggestion") {
@@ -327,16 +328,19 @@ TEST_CASE("the postseason bracket must reduce the field to one team") {
   }
 }
 
-TEST_CASE("a postseason cannot need more qualifiers than a conference has") {
-  CHECK(errors_of(postseason("{division_winners: 3, at_large: 4}", ROUND)) ==
-        "t.yaml:20:31: postseason: 3 division winners qualify but conference 'east' has 2 "
-        "divisions\n"
-        "t.yaml:20:31: postseason: 3 division winners qualify but conference 'west' has 2 "
-        "divisions\n"
-        "t.yaml:20:44: postseason: 7 qualifiers (3 division winners + 4 at-large) but conference "
+TEST_CASE("a postseason cannot need more qualifiers than a conference has teams") {
+  CHECK(errors_of(postseason("{division_winners: 2, at_large: 5}", ROUND)) ==
+        "t.yaml:20:44: postseason: 7 qualifiers (2 division winners + 5 at-large) but conference "
         "'east' has 6 teams\n"
-        "t.yaml:20:44: postseason: 7 qualifiers (3 division winners + 4 at-large) but conference "
+        "t.yaml:20:44: postseason: 7 qualifiers (2 division winners + 5 at-large) but conference "
         "'west' has 6 teams");
+}
+
+TEST_CASE("a postseason cannot need more division winners than a conference has divisions") {
+  CHECK(errors_of(postseason("{division_winners: 2}", ROUND + ROUND,
+                             "  per_conference: {west: {division_winners: 3}}\n")) ==
+        "t.yaml:20:45: postseason: 3 division winners qualify but conference 'west' has 2 "
+        "divisions");
 }
 
 TEST_CASE("a bye count as large as the field is refused") {
@@ -345,12 +349,14 @@ TEST_CASE("a bye count as large as the field is refused") {
                       "teams; byes must be fewer than the field"));
 }
 
-TEST_CASE("series lengths must be odd and home blocks must add up") {
-  const std::string e = errors_of(postseason(
-      "{}", "    - {best_of: 4}\n    - {best_of: 5, hosts: [2, 2]}\n    - {best_of: 3}\n"));
-  CHECK(e ==
-        "t.yaml:22:17: postseason.rounds[0].best_of: a series length must be odd, got 4\n"
-        "t.yaml:23:27: postseason.rounds[1].hosts: the blocks add up to 4 games but the series is "
+TEST_CASE("an even series length is refused") {
+  CHECK(errors_of(postseason("{}", "    - {best_of: 4}\n    - {best_of: 3}\n")) ==
+        "t.yaml:22:17: postseason.rounds[0].best_of: a series length must be odd, got 4");
+}
+
+TEST_CASE("hosts blocks must add up to the series length") {
+  CHECK(errors_of(postseason("{}", "    - {best_of: 5, hosts: [2, 2]}\n    - {best_of: 3}\n")) ==
+        "t.yaml:22:27: postseason.rounds[0].hosts: the blocks add up to 4 games but the series is "
         "best of 5");
 }
 
@@ -361,10 +367,14 @@ TEST_CASE("an unknown tiebreaker is reported with a suggestion") {
         "run_differential, {last_games: N, within: SCOPE}, draw");
 }
 
-TEST_CASE("overrides must name a known team and give runs or a win percentage") {
+TEST_CASE("an override naming an unknown team is refused") {
+  CHECK(errors_of(BASE + "overrides:\n  - {team: BBC, win_pct: 0.6}\n") ==
+        "t.yaml:15:12: overrides[0].team: unknown team 'BBC' (did you mean 'BBB'?)");
+}
+
+TEST_CASE("an override giving neither runs nor a win percentage is refused") {
   CHECK(errors_of(BASE +
-                  "overrides:\n  - {team: BBC, win_pct: 0.6}\n  - {team: AAA, blend: 0.5}\n") ==
-        "t.yaml:15:12: overrides[0].team: unknown team 'BBC' (did you mean 'BBB'?)\n"
+                  "overrides:\n  - {team: AAA, win_pct: 0.6}\n  - {team: AAA, blend: 0.5}\n") ==
         "t.yaml:16:5: overrides[1]: an override needs runs_scored/runs_allowed or win_pct");
 }
 
