@@ -56,6 +56,7 @@ const StandingsLine& find(const standfast::engine::DivisionStandings& d, int tea
 }  // namespace
 
 TEST_CASE("games back by the common formula") {
+  // Ref: common practice; GB = ((W_leader - W) + (L - L_leader)) / 2; values worked by hand.
   // Leader 6-2, team 10-4: ((6 - 10) + (4 - 2)) / 2 = -1 game (-2 halves).
   REQUIRE(games_back_halves(6, 2, 10, 4) == -2);
   // Leader 90-60, team 84-66: (6 + 6) / 2 = 6 games.

@@ -62,7 +62,7 @@ std::vector<int> order(const Tiebreaker& tb, std::vector<int> teams, const Seaso
 }  // namespace
 
 TEST_CASE("winning percentages compare exactly") {
-  // Closed form: 1/3 == 2/6, 2/3 > 3/5, 0-0 counts 1/2.
+  // Ref: closed form (exact fractions); 1/3 == 2/6, 2/3 > 3/5, 0/0 taken as 1/2 (documented).
   REQUIRE(compare_pct(1, 2, 2, 4) == 0);
   REQUIRE(compare_pct(2, 1, 3, 2) == 1);
   REQUIRE(compare_pct(3, 2, 2, 1) == -1);
@@ -72,7 +72,7 @@ TEST_CASE("winning percentages compare exactly") {
 }
 
 TEST_CASE("pct_key orders every pair of records up to 200 games as the exact fractions do") {
-  // Reference: exact fraction comparison by cross-multiplication in 64-bit integers (exact for these sizes).
+  // Ref: closed form; a/b vs c/d by a*d vs c*b in 64-bit integers (exact at these sizes).
   std::vector<std::pair<int, int>> recs;
   for (int g = 1; g <= 200; ++g) {
     for (int w = 0; w <= g; w += (g > 60 ? 7 : 1)) recs.emplace_back(w, g - w);
@@ -238,8 +238,10 @@ TEST_CASE("last N games within a scope") {
 
 TEST_CASE("random draw: every order equally likely") {
   // Three fully tied teams, only the draw: 6 orders with p = 1/6 each. Over N = 60000 draws a
-  // count is Binomial(N, 1/6): mean 10000, sd sqrt(N p (1-p)) = 91.29. Bound 4.5 sd (411): the
-  // chance that any of 6 counts leaves it is below 6 * 6.8e-6 (two-sided normal tail).
+  // count is Binomial(N, 1/6): mean 10000, sd sqrt(N p (1-p)) = 91.29. Bound 4.5 sd (410.8), so
+  // a count passes when 9590 <= c <= 10410.
+  // Ref: SciPy 1.10.1; binom.sf(10410, 60000, 1/6) + binom.cdf(9589, 60000, 1/6); 6.92e-06
+  // (chance that one count fails with a fair draw; below 4.2e-5 for the six).
   const auto r = record(3);
   const Tiebreaker tb;
   TiebreakScratch scratch(3);
@@ -259,7 +261,8 @@ TEST_CASE("random draw: every order equally likely") {
 
 TEST_CASE("random draw after rules that separate no one; two teams about half and half") {
   // Two teams with identical records in everything: head-to-head 1-1, same division record.
-  // N = 40000 draws: Binomial(N, 1/2), sd = 100. Bound 4 sd = 400.
+  // N = 40000 draws: Binomial(N, 1/2), sd = 100. Bound 4 sd: 19601 <= count <= 20399.
+  // Ref: SciPy 1.10.1; binom.sf(20399, 40000, 0.5) + binom.cdf(19600, 40000, 0.5); 6.47e-05
   auto r = record(2);
   r.add_result(0, 1, 3, 2);
   r.add_result(1, 0, 3, 2);
