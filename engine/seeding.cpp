@@ -39,6 +39,15 @@ void settle_by_game(int* teams, int i, ExtraGame extra, int& played) {
 Seeder::Seeder(const config::Season& season)
     : team_count_(static_cast<int>(season.teams.size())), tiebreaker_(season) {
   const int n = team_count_;
+  {
+    std::vector<int> scheduled(season.teams.size(), 0);
+    for (const auto& g : season.games) {
+      if (g.home >= 0 && g.home < n) ++scheduled[g.home];
+      if (g.away >= 0 && g.away < n) ++scheduled[g.away];
+    }
+    const int most = scheduled.empty() ? 0 : *std::max_element(scheduled.begin(), scheduled.end());
+    key_table_ = PctKeyTable(most + 8);  // a few extra games (tiebreak games) fit too
+  }
   std::vector<int> group_to_division(season.groups.size(), -1);
   std::vector<int> group_to_conference(season.groups.size(), -1);
   for (std::size_t d = 0; d < season.divisions.size(); ++d) {
@@ -123,7 +132,7 @@ void Seeder::rank(const SeasonRecord& record, Rng& rng, TiebreakScratch& scratch
   std::int64_t* key = out.keys.data();
   for (int t = 0; t < n; ++t) {
     out.league[t] = t;
-    key[t] = pct_key(record.wins(t), record.losses(t));
+    key[t] = key_table_.key(record.wins(t), record.losses(t));
   }
   const std::span<const std::int64_t> keys(key, static_cast<std::size_t>(n));
   tiebreaker_.rank(out.league, keys, record, rng, scratch);

@@ -92,6 +92,7 @@ class Seeder {
   };
   int team_count_ = 0;
   Tiebreaker tiebreaker_;
+  PctKeyTable key_table_;                  // exact winning-percentage keys without a division
   std::vector<int> team_division_;         // per team: position in Season::divisions
   std::vector<int> team_conference_;       // per team: position in Season::conferences
   std::vector<int> division_offset_;       // per division: start in division_teams; size D + 1

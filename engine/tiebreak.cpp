@@ -1,5 +1,7 @@
 #include "engine/tiebreak.h"
 
+#include <algorithm>
+#include <cstdint>
 #include <stdexcept>
 #include <string>
 #include <utility>
@@ -12,6 +14,15 @@ int compare_pct(std::int64_t w1, std::int64_t l1, std::int64_t w2, std::int64_t 
   const std::int64_t lhs = w1 * (w2 + l2);
   const std::int64_t rhs = w2 * (w1 + l1);
   return (lhs > rhs) - (lhs < rhs);
+}
+
+PctKeyTable::PctKeyTable(int max_games) {
+  const int top = std::min(max_games, (1 << 16) - 1);
+  if (top < 2) return;
+  recip_.assign(static_cast<std::size_t>(top) + 1, 0);
+  for (int g = 2; g <= top; ++g) {
+    recip_[static_cast<std::size_t>(g)] = UINT64_MAX / static_cast<std::uint64_t>(g) + 1;
+  }
 }
 
 TiebreakScratch::TiebreakScratch(int team_count) {

@@ -18,6 +18,7 @@
 //   last_games         winning percentage over the team's last N games within the scope
 //                      (league, conference or division); no games = .500.
 //   draw               a uniform random order of the tied set (Fisher-Yates with uniform_below).
+//                      Rules listed after a draw are never reached.
 //
 // Usage: build one Tiebreaker per season (it is immutable and may be shared by threads), and one
 // TiebreakScratch per thread; then call order_tied or rank once per simulated season. Neither
@@ -48,6 +49,27 @@ inline std::int64_t pct_key(int wins, int losses) {
   if (g == 0) return std::int64_t{1} << 31;
   return (static_cast<std::int64_t>(wins) << 32) / g;
 }
+
+// pct_key without a division: floor(x * m / 2^64) with x = wins * 2^32 and m = floor(2^64 / g) + 1
+// from a table by games g. Exact for g < 2^16: with m g = 2^64 + e, 0 < e <= g, the error term
+// x e / (g 2^64) stays below 2^-16 < 1/g, too small to cross an integer. Falls back to pct_key
+// for records longer than the table.
+class PctKeyTable {
+ public:
+  explicit PctKeyTable(int max_games = 0);
+  std::int64_t key(int wins, int losses) const {
+    const int g = wins + losses;
+    if (g < 2 || g >= static_cast<int>(recip_.size())) return pct_key(wins, losses);
+    return mul_high(static_cast<std::uint64_t>(wins) << 32, recip_[static_cast<std::size_t>(g)]);
+  }
+
+ private:
+  __extension__ typedef unsigned __int128 Wide;  // GCC and Clang
+  static std::int64_t mul_high(std::uint64_t a, std::uint64_t b) {
+    return static_cast<std::int64_t>((static_cast<Wide>(a) * b) >> 64);
+  }
+  std::vector<std::uint64_t> recip_;
+};
 
 // Per-thread working space for the procedure, sized for a league of `team_count` teams.
 class TiebreakScratch {

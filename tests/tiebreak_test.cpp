@@ -90,6 +90,24 @@ TEST_CASE("pct_key orders every pair of records up to 200 games as the exact fra
   REQUIRE(mismatches == 0);
 }
 
+TEST_CASE("PctKeyTable gives pct_key without dividing") {
+  // Ref: closed form; floor(w * 2^32 / g) by 64-bit integer division (pct_key), compared for
+  // every record of up to 3000 games and for sampled records up to 65535 games.
+  const standfast::engine::PctKeyTable table(65535);
+  long mismatches = 0;
+  for (int g = 0; g <= 3000; ++g) {
+    for (int w = 0; w <= g; ++w) mismatches += table.key(w, g - w) != pct_key(w, g - w);
+  }
+  for (int g = 3001; g <= 65535; g += 97) {
+    for (int w = 0; w <= g; w += 1 + g / 500)
+      mismatches += table.key(w, g - w) != pct_key(w, g - w);
+    mismatches += table.key(g - 1, 1) != pct_key(g - 1, 1);
+  }
+  REQUIRE(mismatches == 0);
+  const standfast::engine::PctKeyTable small(10);  // longer records fall back to pct_key
+  REQUIRE(small.key(150, 12) == pct_key(150, 12));
+}
+
 TEST_CASE("two teams: head-to-head decides") {
   // A (0) beat B (1) 3 games to 2 in their season series.
   auto r = record(2);
