@@ -301,6 +301,16 @@ JointFit fit_joint(const std::vector<Side>& sides, int n, const JointOptions& o)
     start_shape = v > m * 1.01 ? std::clamp(m * m / (v - m), 0.5, 1000.0) : 1000.0;
   }
   x0.push_back(shape_free ? std::log(start_shape) : 0.0);
+  if (o.start != nullptr && o.start->teams == n) {
+    // Warm start from an earlier fit of the same data (for example without the prior).
+    x0[0] = o.start->log_mean;
+    if (!o.home_edge) x0[1] = o.start->log_home;
+    for (int j = 0; j < n - 1; ++j) {
+      x0[2 + j] = o.start->log_offence[j];
+      x0[2 + n - 1 + j] = o.start->log_defence[j];
+    }
+    if (shape_free && o.start->shape > 0.0) x0[p] = std::clamp(std::log(o.start->shape), lo, hi);
+  }
   NewtonOptions nopt;
   nopt.gradient_tolerance = 1e-9 * std::max<double>(1.0, sides.size());
   const NewtonResult r = minimize_newton(objective, x0, nopt);

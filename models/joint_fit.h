@@ -22,10 +22,11 @@ namespace standfast::models {
 
 struct JointOptions {
   config::ScoreFamily family = config::ScoreFamily::kWeibull;
-  std::optional<double> shape;      // fixed shape; empty = fitted (ignored for Poisson)
-  std::optional<double> home_edge;  // fixed home multiplier; empty = fitted
-  double prior_precision = 0.0;     // on each log rating; 0 = no shrinkage
-  bool covariance = true;           // compute the observed-information covariance
+  std::optional<double> shape;             // fixed shape; empty = fitted (ignored for Poisson)
+  std::optional<double> home_edge;         // fixed home multiplier; empty = fitted
+  double prior_precision = 0.0;            // on each log rating; 0 = no shrinkage
+  bool covariance = true;                  // compute the observed-information covariance
+  const struct JointFit* start = nullptr;  // optional starting point (same teams and family)
 };
 
 struct JointFit {

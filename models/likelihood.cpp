@@ -194,8 +194,20 @@ ScaleSolution solve_scale_direct(double mu, double g) {
 }
 
 ScaleSolution solve_scale(double mu, double g) {
-  thread_local CorrectionTable table;
-  if (table.shape() != g) table.build(g);
+  // The fits ask for a few shapes in turn (the shape and its finite-difference neighbours):
+  // keep the last four tables.
+  thread_local CorrectionTable tables[4];
+  thread_local int next = 0;
+  CorrectionTable* found = nullptr;
+  for (auto& t : tables) {
+    if (t.shape() == g) found = &t;
+  }
+  if (found == nullptr) {
+    found = &tables[next];
+    next = (next + 1) % 4;
+    found->build(g);
+  }
+  const CorrectionTable& table = *found;
   const double g1 = table.g1();
   // Newton's method on m(a) = a G - 1/2 + c(a) = mu from the continuous solution.
   double a = (mu + 0.5) / g1;

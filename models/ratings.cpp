@@ -116,6 +116,7 @@ RatingsFit fit_ratings_detail(const config::Season& season) {
     // A prior worth `shrink_games` games of league-average scoring on each log rating.
     out.prior_precision = spec.shrink_games * out.info_per_side;
     o.prior_precision = out.prior_precision;
+    o.start = &*out.mle;
     out.shrunk = fit_joint(out.sides, n, o);
   }
   const JointFit& used = out.shrunk ? *out.shrunk : *out.mle;

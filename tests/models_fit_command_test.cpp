@@ -44,6 +44,7 @@ TEST_CASE("fit --format json carries the schema version and the library's number
   const Run r = run("fit " + SMALL + " --format json");
   REQUIRE(r.status == 0);
   const auto j = nlohmann::json::parse(r.out);
+  // Ref: models::fit_report on the same file (library value); JSON parsed by nlohmann-json.
   CHECK(j["schema_version"] == 1);
   const auto season = standfast::config::load_season(SMALL);
   const auto rep = standfast::models::fit_report(season);

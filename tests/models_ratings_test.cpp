@@ -42,13 +42,14 @@ TEST_CASE("fit_ratings: estimates, expected runs and the covariance factor") {
   }
   CHECK(so == Approx(0.0).margin(1e-10));  // geometric mean 1
   CHECK(sd == Approx(0.0).margin(1e-10));
-  // Model formula: M x offence x defence x venue x home edge.
+  // Ref: closed form (model definition, DESIGN.md "Schedule strength"): M x offence x defence
+  // x venue x home edge; relative 1e-12 (Approx default scale).
   CHECK(r.expected_runs(2, 3, 1.1, true) ==
         Approx(r.league_mean * r.teams[2].offence * r.teams[3].defence * 1.1 * r.home_edge));
   CHECK(r.expected_runs(2, 3, 1.0, false) ==
         Approx(r.league_mean * r.teams[2].offence * r.teams[3].defence));
   CHECK_THROWS_WITH(r.expected_runs(9, 0, 1.0, true), Catch::Contains("out of range"));
-  // L is lower triangular and L L^T has the standard errors on its diagonal.
+  // Ref: closed form; a Cholesky factor L of Sigma has diag(L L^T) = SE^2; relative 1e-9.
   const int m = 2 * n;
   for (int i = 0; i < m; ++i) {
     for (int j = i + 1; j < m; ++j) CHECK(r.cholesky[i * m + j] == 0.0);
@@ -90,6 +91,7 @@ TEST_CASE("shrinkage pulls ratings toward the league by n / (n + k) on the log s
     }
     CHECK(shrunk.teams[i].log_offence_se < raw.teams[i].log_offence_se);
   }
+  // Ref: closed form n / (n + k) for a normal prior (conjugate normal mean); margin 0.05.
   CHECK(ab / aa == Approx(factor).margin(0.05));
 }
 
@@ -132,6 +134,7 @@ TEST_CASE("fit report: records, families and tests") {
     CHECK(t.df > 0);
     CHECK(t.critical > 0.0);
   }
+  // Ref: counts of the generated games (one win and one loss per game).
   CHECK(wins == static_cast<int>(season.games.size()));
   CHECK(losses == wins);
   CHECK(games == 2 * wins);
