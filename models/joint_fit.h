@@ -5,10 +5,11 @@
 // family's shape (Weibull gamma or negative-binomial size) shared by the league.
 // Optional shrinkage: a normal prior N(0, 1/prior_precision) on every log offence and log
 // defence (see ratings.h for how the precision follows from shrink_games).
-// Method: Boost.Math brent_find_minima on log(shape) over the profile objective; for each shape a
-// damped Newton's method (models/optimize.h) with the analytic gradient and Hessian of the
-// linear predictor. Standard errors from the observed information (the Hessian of the negative
-// log-posterior, with the shape row and column by central differences).
+// Method: one damped Newton's method (models/optimize.h) over (ratings, log shape), with the
+// analytic gradient and Hessian in the linear predictor and central differences (step 1e-5)
+// in log(shape); the search for log(shape) is bounded (Weibull gamma in [0.6, 6], negative-
+// binomial size in [0.2, 5000]). Standard errors from the observed information (the Hessian of
+// the negative log-posterior at the estimate).
 #ifndef STANDFAST_MODELS_JOINT_FIT_H
 #define STANDFAST_MODELS_JOINT_FIT_H
 
