@@ -103,6 +103,17 @@ RatingsFit fit_ratings_detail(const config::Season& season) {
     }
     return out;
   }
+  if (spec.shrink_games == 0.0) {
+    std::vector<int> sides_of(n, 0);
+    for (const Side& s : out.sides) ++sides_of[s.batting];
+    for (int i = 0; i < n; ++i) {
+      if (sides_of[i] == 0) {
+        throw std::domain_error(fmt::format(
+            "fit_ratings: team {} has no played game; its rating needs model.shrink_games > 0",
+            season.teams[i].id));
+      }
+    }
+  }
   JointOptions o;
   o.family = spec.family;
   o.shape = spec.family == config::ScoreFamily::kPoisson ? std::nullopt : spec.shape;

@@ -111,6 +111,13 @@ TEST_CASE("log5, no games and bad data") {
   CHECK(r.league_mean == 4.5);
   CHECK(r.teams[0].log_offence_se > 0.0);  // the prior alone (shrink_games 20)
   season = synthetic_season(league(n), 705);
+  season.model.shrink_games = 0.0;
+  for (auto& g : season.games) g.played = g.played && g.home != 5 && g.away != 5;
+  CHECK_THROWS_WITH(fit_ratings(season), Catch::Contains("team T05 has no played game"));
+  season.model.shrink_games = 20.0;
+  r = fit_ratings(season);  // with the prior, the team without games sits at the league
+  CHECK(std::abs(std::log(r.teams[5].offence)) < 0.05);
+  season = synthetic_season(league(n), 705);
   season.model.shrink_games = -1.0;
   CHECK_THROWS_WITH(fit_ratings(season), Catch::Contains("shrink_games"));
   season.model.shrink_games = 0.0;
