@@ -1,6 +1,6 @@
 // Team ratings for the simulation engine: the schedule-adjusted scoring model fitted by maximum
 // likelihood from the played games, shrunk toward the league mean, with the covariance the
-// engine draws true strengths from. See models/MODELS.md for the model and its choices.
+// engine draws true strengths from. See README.md, section "Scoring models", for the choices.
 //
 // Model: the runs of one side of one game follow the family of Season::model with mean
 //   league_mean x offence[batting] x defence[fielding] x run_factor[home team's venue]
