@@ -60,6 +60,7 @@ WeibullTable::WeibullTable(double shape) : shape_(shape), inv_shape_(0), inv_gam
   scale_.resize(n);
   for (std::size_t i = 0; i < n; ++i)
     scale_[i] = solve_scale(static_cast<double>(i) * MEAN_STEP, shape, inv_gamma_);
+  last_index_ = static_cast<double>(n - 1);
 }
 
 double WeibullTable::exact_quantile(std::uint32_t bits) const {

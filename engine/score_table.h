@@ -52,7 +52,7 @@ class WeibullTable {
   // Scale whose discretised mean is `mean` (mean >= 0).
   double scale_for_mean(double mean) const {
     const double x = mean * (1.0 / MEAN_STEP);
-    if (x >= static_cast<double>(scale_.size() - 1)) [[unlikely]]
+    if (x >= last_index_) [[unlikely]]
       return (mean + 0.5) * inv_gamma_;
     const auto i = static_cast<std::size_t>(x);
     const double f = x - static_cast<double>(i);
@@ -70,6 +70,7 @@ class WeibullTable {
   double inv_gamma_ = 0;          // 1 / Gamma(1 + 1/shape)
   std::vector<double> quantile_;  // 4097 values at u = i / 4096
   std::vector<double> scale_;     // at mean = i * MEAN_STEP
+  double last_index_ = 0;         // scale_.size() - 1
 };
 
 enum class CountFamily { kNegativeBinomial, kPoisson };

@@ -35,6 +35,7 @@ SeasonRecord::SeasonRecord(std::span<const int> division, std::span<const int> c
     size += (3 + static_cast<std::size_t>(w.games)) * n;
   }
   data_.assign(size, 0);
+  scratch_.assign(2 * n, 0);
   for (int t = 0; t < n_; ++t) {
     at(kDivision, t) = division[t];
     at(kConference, t) = conference[t];
@@ -94,6 +95,88 @@ void SeasonRecord::add_result(int winner, int loser, int winner_runs, int loser_
     if (scope == config::TiebreakScope::kConference && !same_conf) continue;
     push_window(k, winner, 1);
     push_window(k, loser, 0);
+  }
+}
+
+void SeasonRecord::add_results(const std::uint16_t* winner, const std::uint16_t* loser,
+                               const std::uint16_t* winner_runs, const std::uint16_t* loser_runs,
+                               std::size_t count) {
+  const auto n = static_cast<std::size_t>(n_);
+  std::int32_t* d = data_.data();
+  std::int32_t* wins = d + kWins * n;
+  std::int32_t* losses = d + kLosses * n;
+  std::int32_t* runs_for = d + kRunsFor * n;
+  std::int32_t* runs_against = d + kRunsAgainst * n;
+  std::int32_t* div_wins = d + kDivWins * n;
+  std::int32_t* div_losses = d + kDivLosses * n;
+  std::int32_t* conf_wins = d + kConfWins * n;
+  std::int32_t* conf_losses = d + kConfLosses * n;
+  const std::int32_t* division = d + kDivision * n;
+  const std::int32_t* conference = d + kConference * n;
+  std::int32_t* h2h = d + h2h_;
+  for (std::size_t i = 0; i < count; ++i) {
+    const std::size_t w = winner[i], l = loser[i];
+    const std::int32_t wr = winner_runs[i], lr = loser_runs[i];
+    ++wins[w];
+    ++losses[l];
+    runs_for[w] += wr;
+    runs_against[w] += lr;
+    runs_for[l] += lr;
+    runs_against[l] += wr;
+    ++h2h[w * n + l];
+    const std::int32_t same_div = division[w] == division[l];
+    const std::int32_t same_conf = conference[w] == conference[l];
+    div_wins[w] += same_div;
+    div_losses[l] += same_div;
+    conf_wins[w] += same_conf;
+    conf_losses[l] += same_conf;
+  }
+  std::int32_t* in_scope = scratch_.data();    // per team: the batch's games in scope
+  std::int32_t* filled = scratch_.data() + n;  // per team: results written so far
+  for (std::size_t k = 0; k < windows_.size(); ++k) {
+    const auto scope = windows_[k].scope;
+    const std::int32_t* group = scope == config::TiebreakScope::kDivision     ? division
+                                : scope == config::TiebreakScope::kConference ? conference
+                                                                              : nullptr;
+    const auto games = static_cast<std::int32_t>(windows_[k].games);
+    std::int32_t* base = d + win_base_[k];
+    std::int32_t* w_wins = base;
+    std::int32_t* w_count = base + n;
+    std::int32_t* w_head = base + 2 * n;
+    std::int32_t* rings = base + 3 * n;
+    std::fill(in_scope, in_scope + 2 * n, 0);
+    for (std::size_t i = 0; i < count; ++i) {
+      const std::int32_t in = group ? group[winner[i]] == group[loser[i]] : 1;
+      in_scope[winner[i]] += in;
+      in_scope[loser[i]] += in;
+    }
+    // The last `games` in-scope results of each team, written where sequential pushes would
+    // have put them: the j-th from the end goes to (new head - 1 - j) mod games. The scan
+    // stops once every team's ring is full (or holds all of its games of the batch).
+    std::size_t open = 0;
+    for (std::size_t t = 0; t < n; ++t) open += in_scope[t] > 0;
+    auto place = [&](std::size_t t, std::int32_t won) {
+      if (filled[t] >= games || filled[t] >= in_scope[t]) return;
+      const std::int32_t new_head = (w_head[t] + in_scope[t]) % games;
+      const std::int32_t pos = ((new_head - 1 - filled[t]) % games + games) % games;
+      rings[t * static_cast<std::size_t>(games) + static_cast<std::size_t>(pos)] = won;
+      ++filled[t];
+      open -= filled[t] == games || filled[t] == in_scope[t];
+    };
+    for (std::size_t i = count; i-- > 0 && open > 0;) {
+      if (group && group[winner[i]] != group[loser[i]]) continue;
+      place(winner[i], 1);
+      place(loser[i], 0);
+    }
+    for (std::size_t t = 0; t < n; ++t) {
+      if (in_scope[t] == 0) continue;
+      w_count[t] = std::min(games, w_count[t] + in_scope[t]);
+      w_head[t] = (w_head[t] + in_scope[t]) % games;
+      const std::int32_t* ring = rings + t * static_cast<std::size_t>(games);
+      std::int32_t sum = 0;
+      for (std::int32_t j = 0; j < games; ++j) sum += ring[j];
+      w_wins[t] = sum;
+    }
   }
 }
 

@@ -50,6 +50,14 @@ class SeasonRecord {
   // chronological order (the last-games windows depend on it). No allocation.
   void add_result(int winner, int loser, int winner_runs, int loser_runs);
 
+  // Adds games [0, count) in chronological order: game i was won by winner[i] over loser[i],
+  // winner_runs[i] to loser_runs[i]. Leaves exactly the record that add_result would leave
+  // called for each game in turn, but faster (no branch per game; the last-games rings are
+  // filled from the end). For the simulation engine's inner loop. No allocation.
+  void add_results(const std::uint16_t* winner, const std::uint16_t* loser,
+                   const std::uint16_t* winner_runs, const std::uint16_t* loser_runs,
+                   std::size_t count);
+
   int wins(int t) const { return at(kWins, t); }
   int losses(int t) const { return at(kLosses, t); }
   int games(int t) const { return wins(t) + losses(t); }
@@ -99,6 +107,7 @@ class SeasonRecord {
   std::vector<LastGamesWindow> windows_;
   std::vector<std::size_t> win_base_;  // offset of each window's blocks
   std::vector<std::int32_t> data_;
+  std::vector<std::int32_t> scratch_;  // add_results: per team, games in a window's scope
 };
 
 // An empty record for the season's teams, with the windows its tiebreakers need.

@@ -28,6 +28,7 @@ constexpr std::uint64_t GRAIN = 128;
 struct Worker {
   std::vector<double> off, def, odds;  // per slot: league mean x offence, defence, log5 odds
   std::vector<double> z, x;            // normal draws and correlated log deviations
+  std::vector<std::uint16_t> winner, loser, winner_runs, loser_runs;  // per remaining game
   SeasonRecord record;
   LeagueRanking ranking;
   TiebreakScratch scratch;
@@ -44,6 +45,10 @@ struct Worker {
         odds(static_cast<std::size_t>(plan.slots)),
         z(2 * static_cast<std::size_t>(plan.teams)),
         x(2 * static_cast<std::size_t>(plan.teams)),
+        winner(plan.remaining_games()),
+        loser(plan.remaining_games()),
+        winner_runs(plan.remaining_games()),
+        loser_runs(plan.remaining_games()),
         record(plan.played),
         ranking(plan.seeder.make_ranking()),
         scratch(plan.seeder.make_scratch()),
@@ -179,7 +184,10 @@ class SeasonRunner {
     const double* def = w.def.data();
     const double* odds = w.odds.data();
     std::uint64_t extra = 0, drawn = 0;
-    SeasonRecord& rec = w.record;
+    std::uint16_t* win = w.winner.data();
+    std::uint16_t* lose = w.loser.data();
+    std::uint16_t* win_runs = w.winner_runs.data();
+    std::uint16_t* lose_runs = w.loser_runs.data();
     for (std::size_t g = 0; g < count; ++g) {
       GameResult r;
       if constexpr (M == GameModel::kLog5) {
@@ -192,11 +200,16 @@ class SeasonRunner {
       }
       extra += r.extra;
       drawn += r.drawn;
-      if (r.home_won)
-        rec.add_result(ht[g], at[g], r.home_runs, r.away_runs);
-      else
-        rec.add_result(at[g], ht[g], r.away_runs, r.home_runs);
+      // Branch-free: the winner is home or away with equal odds, a branch would mispredict.
+      const bool hw = r.home_won;
+      const int h = ht[g], a = at[g];
+      const int hr = std::min(r.home_runs, 65535), ar = std::min(r.away_runs, 65535);
+      win[g] = static_cast<std::uint16_t>(hw ? h : a);
+      lose[g] = static_cast<std::uint16_t>(hw ? a : h);
+      win_runs[g] = static_cast<std::uint16_t>(hw ? hr : ar);
+      lose_runs[g] = static_cast<std::uint16_t>(hw ? ar : hr);
     }
+    w.record.add_results(win, lose, win_runs, lose_runs, count);
     w.tally.add_games(count, extra, drawn);
   }
 
