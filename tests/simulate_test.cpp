@@ -179,3 +179,229 @@ TEST_CASE("tiny league: postseason and title chances match exact enumeration") {
   CHECK(sum_title == Approx(1.0).epsilon(1e-12));
   CHECK(sum_post == Approx(2.0).epsilon(1e-12));
 }
+
+namespace {
+
+// Twelve teams: two conferences of two divisions of three. One round-robin played (66 games,
+// invented scores), two more left (132 games). Three qualifiers per conference (two division
+// winners and one at-large, the top seed with a bye), conference final, league final; a
+// Weibull model with uncertain strengths, a home edge, a venue factor, an override, tiebreak
+// rules that read head-to-head, run differential and a last-games window.
+config::Season twelve_teams(bool reseed = false) {
+  config::Season s;
+  s.file = "twelve.yaml";
+  for (int c = 0; c < 2; ++c) {
+    config::Group conf;
+    conf.id = c ? "East" : "West";
+    s.groups.push_back(conf);
+  }
+  s.conferences = {0, 1};
+  for (int d = 0; d < 4; ++d) {
+    config::Group div;
+    div.id = "D";
+    div.id += std::to_string(d);
+    div.parent = d / 2;
+    for (int k = 0; k < 3; ++k) div.teams.push_back(3 * d + k);
+    s.groups[static_cast<std::size_t>(d / 2)].children.push_back(static_cast<int>(s.groups.size()));
+    s.divisions.push_back(static_cast<int>(s.groups.size()));
+    s.groups.push_back(div);
+  }
+  for (int t = 0; t < 12; ++t)
+    s.teams.push_back(
+        team(std::string("T").append(std::to_string(t)), 2 + t / 3, t / 6, t == 4 ? 1.08 : 1.0));
+  int day = 1;
+  for (int round = 0; round < 3; ++round)
+    for (int i = 0; i < 12; ++i)
+      for (int j = i + 1; j < 12; ++j) {
+        const bool flip = (i + j + round) % 2;
+        const int h = flip ? j : i, a = flip ? i : j;
+        if (round == 0)
+          s.games.push_back(game(day++, h, a, (i * 7 + j * 3) % 9,
+                                 (i * 5 + j) % 8 + ((i + j) % 9 == (i * 5 + j) % 8 ? 1 : 0)));
+        else
+          s.games.push_back(game(day++, h, a));
+      }
+  for (auto& g : s.games)
+    if (g.played && g.home_runs == g.away_runs) ++g.home_runs;
+  s.postseason.enabled = true;
+  s.postseason.reseed = reseed;
+  s.postseason.qualifying.push_back(config::Qualifying{0, 2, 1, 1, true});
+  s.postseason.qualifying.push_back(config::Qualifying{1, 2, 1, 1, true});
+  const char* names[3] = {"Semifinal", "Conference final", "Final"};
+  for (int r = 0; r < 3; ++r) {
+    config::Round round;
+    round.name = names[r];
+    round.best_of = 2 * r + 3;
+    for (int g = 0; g < round.best_of; ++g) round.higher_hosts.push_back(g % 2 == 0);
+    s.postseason.rounds.push_back(round);
+  }
+  config::TiebreakRule h2h, rd, last;
+  h2h.kind = config::TiebreakKind::kHeadToHead;
+  rd.kind = config::TiebreakKind::kRunDifferential;
+  last.kind = config::TiebreakKind::kLastGames;
+  last.games = 5;
+  last.scope = config::TiebreakScope::kDivision;
+  s.tiebreakers.order = {h2h, last, rd};
+  s.league.extra_innings.runner_on_second = true;
+  config::TeamOverride o;
+  o.team = 7;
+  o.runs_allowed = 3.6;
+  o.blend = 0.5;
+  o.from = 20000 + 120;
+  s.overrides.push_back(o);
+  return s;
+}
+
+models::LeagueRatings twelve_ratings(const config::Season& s) {
+  models::LeagueRatings r = neutral_ratings(s, config::ScoreFamily::kWeibull);
+  r.home_edge = 1.04;
+  for (std::size_t t = 0; t < r.teams.size(); ++t) {
+    r.teams[t].offence = 0.85 + 0.03 * static_cast<double>(t);
+    r.teams[t].defence = 1.12 - 0.02 * static_cast<double>(t);
+    r.teams[t].log_offence_se = 0.06;
+    r.teams[t].log_defence_se = 0.05;
+  }
+  return r;
+}
+
+void require_identical(const SimulationResult& a, const SimulationResult& b) {
+  REQUIRE(a.seasons == b.seasons);
+  REQUIRE(a.seed == b.seed);
+  REQUIRE(a.max_se == b.max_se);
+  REQUIRE(a.extra_innings_share == b.extra_innings_share);
+  REQUIRE(a.games_simulated == b.games_simulated);
+  REQUIRE(a.extra_innings_games == b.extra_innings_games);
+  REQUIRE(a.drawn_games == b.drawn_games);
+  REQUIRE(a.stopped_early == b.stopped_early);
+  REQUIRE(a.round_names == b.round_names);
+  REQUIRE(a.teams.size() == b.teams.size());
+  auto same = [](const Probability& x, const Probability& y) { return x.p == y.p && x.se == y.se; };
+  for (std::size_t t = 0; t < a.teams.size(); ++t) {
+    const TeamOdds& x = a.teams[t];
+    const TeamOdds& y = b.teams[t];
+    REQUIRE(same(x.division, y.division));
+    REQUIRE(same(x.postseason, y.postseason));
+    REQUIRE(same(x.bye, y.bye));
+    REQUIRE(same(x.title, y.title));
+    REQUIRE(x.reached_round.size() == y.reached_round.size());
+    for (std::size_t r = 0; r < x.reached_round.size(); ++r)
+      REQUIRE(same(x.reached_round[r], y.reached_round[r]));
+    REQUIRE(x.wins_histogram == y.wins_histogram);
+    REQUIRE(x.seed_histogram == y.seed_histogram);
+    REQUIRE(x.mean_wins == y.mean_wins);
+    REQUIRE(x.mean_losses == y.mean_losses);
+    REQUIRE(x.wins_p10 == y.wins_p10);
+    REQUIRE(x.wins_p50 == y.wins_p50);
+    REQUIRE(x.wins_p90 == y.wins_p90);
+  }
+}
+
+}  // namespace
+
+TEST_CASE("the same seed gives bit-identical results for 1, 2 and 8 threads") {
+  const config::Season s = twelve_teams();
+  const Plan plan = compile_plan(s, twelve_ratings(s));
+  RunOptions opt;
+  opt.seed = 99;
+  opt.seasons = 6000;
+  opt.batch = 2500;  // batches of 2500, 2500, 1000
+  opt.threads = 1;
+  const SimulationResult one = simulate(plan, opt);
+  opt.threads = 2;
+  const SimulationResult two = simulate(plan, opt);
+  opt.threads = 8;
+  const SimulationResult eight = simulate(plan, opt);
+  REQUIRE(one.seasons == 6000);
+  require_identical(one, two);
+  require_identical(one, eight);
+  // A different seed gives different numbers.
+  opt.seed = 100;
+  const SimulationResult other = simulate(plan, opt);
+  bool differs = false;
+  for (std::size_t t = 0; t < 12; ++t)
+    differs = differs || other.teams[t].wins_histogram != one.teams[t].wins_histogram;
+  CHECK(differs);
+}
+
+TEST_CASE("probabilities obey the league's invariants") {
+  for (bool reseed : {false, true}) {
+    const config::Season s = twelve_teams(reseed);
+    const Plan plan = compile_plan(s, twelve_ratings(s));
+    RunOptions opt;
+    opt.seed = 5;
+    opt.seasons = 20000;
+    const SimulationResult r = simulate(plan, opt);
+    REQUIRE(r.round_names == std::vector<std::string>{"Semifinal", "Conference final", "Final"});
+    double title = 0;
+    for (int d = 0; d < 4; ++d) {
+      double div = 0;
+      for (int k = 0; k < 3; ++k) div += r.teams[static_cast<std::size_t>(3 * d + k)].division.p;
+      CHECK(div == Approx(1.0).epsilon(1e-12));  // one winner per division
+    }
+    for (int c = 0; c < 2; ++c) {
+      double post = 0, bye = 0, final_round = 0;
+      for (int k = 0; k < 6; ++k) {
+        const TeamOdds& o = r.teams[static_cast<std::size_t>(6 * c + k)];
+        post += o.postseason.p;
+        bye += o.bye.p;
+        final_round += o.reached_round[2].p;
+        CHECK(o.reached_round[0].p == o.postseason.p);
+        CHECK(o.reached_round[1].p <= o.reached_round[0].p);
+        CHECK(o.title.p <= o.reached_round[2].p);
+        std::uint64_t seeds = 0;
+        for (auto c2 : o.seed_histogram) seeds += c2;
+        CHECK(seeds == r.seasons);
+        CHECK(o.mean_wins + o.mean_losses == Approx(33.0));  // three rounds of 11 games
+        CHECK(o.wins_p10 <= o.wins_p50);
+        CHECK(o.wins_p50 <= o.wins_p90);
+      }
+      CHECK(post == Approx(3.0).epsilon(1e-12));  // three berths per conference
+      CHECK(bye == Approx(1.0).epsilon(1e-12));
+      CHECK(final_round == Approx(1.0).epsilon(1e-12));  // one finalist per conference
+      for (int k = 0; k < 6; ++k) title += r.teams[static_cast<std::size_t>(6 * c + k)].title.p;
+    }
+    CHECK(title == Approx(1.0).epsilon(1e-12));
+    CHECK(r.games_simulated == 132u * 20000u);
+    // Extra innings: the share of tied regulation scores is plausible (common practice, from
+    // memory: about a tenth of games or fewer; a final-score model ties a little more often).
+    CHECK(r.extra_innings_share > 0.05);
+    CHECK(r.extra_innings_share < 0.15);
+    CHECK(r.drawn_games == 0);
+  }
+}
+
+TEST_CASE("early stop happens at a batch boundary, the same for any thread count") {
+  const config::Season s = twelve_teams();
+  const Plan plan = compile_plan(s, twelve_ratings(s));
+  RunOptions opt;
+  opt.seed = 11;
+  opt.seasons = 1000000;
+  opt.batch = 700;
+  opt.target_se = 0.01;  // needs at least 2500 seasons (p = 0.5 worst case)
+  std::vector<std::uint64_t> progress;
+  opt.progress = [&](std::uint64_t done, std::uint64_t) { progress.push_back(done); };
+  opt.threads = 1;
+  const SimulationResult one = simulate(plan, opt);
+  opt.threads = 2;
+  const SimulationResult two = simulate(plan, opt);
+  REQUIRE(one.stopped_early);
+  CHECK(one.seasons % 700 == 0);
+  CHECK(one.max_se < 0.01);
+  CHECK(one.seasons >= 2500);
+  require_identical(one, two);
+  CHECK(progress.front() == 700);
+  // Memory is flat: histograms have the league's sizes, not the number of seasons.
+  CHECK(one.teams[0].wins_histogram.size() == 34);
+  CHECK(one.teams[0].seed_histogram.size() == 4);
+}
+
+TEST_CASE("bad run options are refused") {
+  const config::Season season = tiny_league();
+  const Plan plan = compile_plan(season, neutral_ratings(season, config::ScoreFamily::kLog5));
+  RunOptions opt;
+  opt.batch = 0;
+  CHECK_THROWS_AS(simulate(plan, opt), std::invalid_argument);
+  opt.batch = 10;
+  opt.threads = -1;
+  CHECK_THROWS_AS(simulate(plan, opt), std::invalid_argument);
+}

@@ -1,0 +1,121 @@
+// Tests for engine/plan.h: compiling a season and its ratings into flat arrays.
+// Expected values are read off the invented games written out below (counting by hand);
+// standard bracket order is common practice (1 v 8, 4 v 5, 2 v 7, 3 v 6).
+#include "engine/plan.h"
+
+#include <catch2/catch.hpp>
+
+#include "models/ratings.h"
+
+using namespace standfast;
+using namespace standfast::engine;
+
+namespace {
+
+config::Season league(int qualifiers, int byes) {
+  config::Season s;
+  s.file = "plan.yaml";
+  config::Group g;
+  g.id = "C";
+  for (int t = 0; t < 8; ++t) {
+    config::Team team;
+    team.id = "T";
+    team.id += std::to_string(t);
+    team.division = 0;
+    team.conference = 0;
+    team.run_factor = t == 0 ? 1.10 : 1.0;
+    s.teams.push_back(team);
+    g.teams.push_back(t);
+  }
+  s.groups.push_back(g);
+  s.conferences = {0};
+  s.divisions = {0};
+  auto game = [](std::optional<int> day, int h, int a, bool played) {
+    config::Game x;
+    if (day) x.date = 19000 + *day;
+    x.home = h;
+    x.away = a;
+    x.played = played;
+    x.home_runs = played ? 5 : 0;
+    x.away_runs = played ? 2 : 0;
+    return x;
+  };
+  s.games = {game(1, 0, 1, true), game(9, 2, 3, false), game(std::nullopt, 4, 5, false),
+             game(3, 0, 6, false), game(5, 7, 0, false)};
+  s.postseason.enabled = true;
+  s.postseason.qualifying.push_back(config::Qualifying{0, 1, qualifiers - 1, byes, true});
+  for (int r = 0; r < 3; ++r) {
+    config::Round round;
+    round.name = "R";
+    round.name += std::to_string(r);
+    round.best_of = 2 * r + 1;
+    s.postseason.rounds.push_back(round);
+  }
+  return s;
+}
+
+models::LeagueRatings ratings(std::size_t n) {
+  models::LeagueRatings r;
+  r.league_mean = 4.4;
+  r.shape = 1.8;
+  r.home_edge = 1.05;
+  r.teams.assign(n, models::TeamRating{});
+  r.teams[1].offence = 1.2;
+  r.teams[1].log_offence_se = 0.1;
+  return r;
+}
+
+}  // namespace
+
+TEST_CASE("remaining games in date order, undated last; venue and home factors") {
+  const auto s = league(6, 2);
+  const Plan p = compile_plan(s, ratings(8));
+  REQUIRE(p.remaining_games() == 4);
+  // Days 3, 5, 9, then the undated game.
+  CHECK(p.game_index == std::vector<int>{3, 4, 1, 2});
+  CHECK(p.home_team[0] == 0);
+  CHECK(p.away_team[0] == 6);
+  CHECK(p.home_factor[0] == Approx(1.10 * 1.05).epsilon(1e-6));  // venue x home edge
+  CHECK(p.away_factor[0] == Approx(1.10).epsilon(1e-6));
+  CHECK(p.away_factor[1] == Approx(1.0).epsilon(1e-6));  // day 5: at team 7 (factor 1.0)
+  CHECK(p.played.wins(0) == 1);
+  CHECK(p.played.losses(1) == 1);
+  CHECK(p.max_games == 3);  // team 0: one played game and two left
+  CHECK(p.log_offence[1] == Approx(std::log(1.2)));
+  // Standard errors without a covariance become a diagonal factor.
+  REQUIRE(p.draw_strengths);
+  CHECK(p.cholesky[1 * 16 + 1] == 0.1);
+}
+
+TEST_CASE("brackets: byes, round alignment and bad shapes") {
+  const Plan p = compile_plan(league(6, 2), ratings(8));
+  REQUIRE(p.brackets.size() == 1);
+  CHECK(p.brackets[0].order == std::vector<int>{1, 8, 4, 5, 2, 7, 3, 6});
+  CHECK(p.brackets[0].rounds == 3);
+  CHECK(p.brackets[0].first_round == 0);
+  CHECK(p.rounds[2].best_of == 5);
+  CHECK(p.max_seed == 6);
+  const Plan four = compile_plan(league(4, 0), ratings(8));
+  CHECK(four.brackets[0].first_round == 1);  // two rounds, aligned to the end
+  CHECK_THROWS_AS(compile_plan(league(6, 0), ratings(8)), std::invalid_argument);
+  CHECK_THROWS_AS(compile_plan(league(6, 2), ratings(7)), std::invalid_argument);
+  auto even = league(6, 2);
+  even.postseason.rounds[1].best_of = 4;
+  CHECK_THROWS_AS(compile_plan(even, ratings(8)), std::invalid_argument);
+}
+
+TEST_CASE("overrides switch a team to its second slot from their date on") {
+  auto s = league(6, 2);
+  config::TeamOverride o;
+  o.team = 0;
+  o.runs_scored = 6.6;
+  o.from = 19000 + 4;
+  s.overrides.push_back(o);
+  const Plan p = compile_plan(s, ratings(8));
+  REQUIRE(p.slots == 16);
+  CHECK(p.home_slot[0] == 0);      // day 3: before the override
+  CHECK(p.away_slot[1] == 0 + 8);  // day 5: team 0 away, override in force
+  CHECK(p.overrides[0].offence == Approx(6.6 / 4.4));
+  CHECK(p.final_slot[0] == 8);
+  CHECK(p.final_slot[1] == 1);
+}
