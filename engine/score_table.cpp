@@ -54,12 +54,14 @@ WeibullTable::WeibullTable(double shape) : shape_(shape), inv_shape_(0), inv_gam
   quantile_.resize(CELLS + 1);
   for (int i = 0; i <= CELLS; ++i) {
     const double u = static_cast<double>(i) / CELLS;
-    quantile_[i] = i == CELLS ? 0.0 : std::pow(-std::log1p(-u), inv_shape_);
+    quantile_[i] = i == CELLS ? 0.0f : static_cast<float>(std::pow(-std::log1p(-u), inv_shape_));
   }
   const auto n = static_cast<std::size_t>(MAX_TABLE_MEAN / MEAN_STEP) + 1;
-  scale_.resize(n);
-  for (std::size_t i = 0; i < n; ++i)
-    scale_[i] = solve_scale(static_cast<double>(i) * MEAN_STEP, shape, inv_gamma_);
+  correction_.resize(n);
+  for (std::size_t i = 0; i < n; ++i) {
+    const double mean = static_cast<double>(i) * MEAN_STEP;
+    correction_[i] = solve_scale(mean, shape, inv_gamma_) - (mean + 0.5) * inv_gamma_;
+  }
   last_index_ = static_cast<double>(n - 1);
 }
 
