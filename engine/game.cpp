@@ -11,16 +11,26 @@ ExtraInnings::ExtraInnings(int regulation_innings, const config::ExtraInningsRul
 void ExtraInnings::play(Rng& rng, double home_mean, double away_mean, GameResult& r,
                         bool cap_innings) const {
   r.extra = true;
-  const double s_home = scoring_chance(home_mean);
-  const double s_away = scoring_chance(away_mean);
+  // Scoring decisions compare 32-bit uniforms with thresholds: P(bits < t) = t / 2^32.
+  const auto threshold = [](double p) { return static_cast<std::uint64_t>(p * 0x1.0p32); };
+  const std::uint64_t t_home = threshold(scoring_chance(home_mean));
+  const std::uint64_t t_away = threshold(scoring_chance(away_mean));
+  const std::uint64_t t_more = threshold(RUN_CONTINUATION);
+  const auto more_runs = [&](int stop) {  // runs after the first, at most stop - 1 in all
+    int runs = 1;
+    while (runs < stop && (rng() >> 32) < t_more) ++runs;
+    return runs;
+  };
   for (int inning = regulation_ + 1;; ++inning) {
     if (cap_innings && max_innings_ > 0 && inning > max_innings_) {
       r.drawn = true;
       r.home_won = (rng() >> 63) != 0;
       return;
     }
-    const int away = half_inning(rng, s_away, 1 << 30);
-    const int home = half_inning(rng, s_home, away + 1);
+    // One draw decides whether each side scores; the visitors bat first.
+    const std::uint64_t bits = rng();
+    const int away = (bits >> 32) < t_away ? more_runs(1 << 30) : 0;
+    const int home = (bits & 0xffffffffu) < t_home ? more_runs(away + 1) : 0;
     r.away_runs += away;
     r.home_runs += home;
     if (home != away) {
@@ -28,6 +38,15 @@ void ExtraInnings::play(Rng& rng, double home_mean, double away_mean, GameResult
       return;
     }
   }
+}
+
+GameResult ExtraInnings::play_from_tie(Rng& rng, double home_mean, double away_mean, int runs,
+                                       bool cap_innings) const {
+  GameResult r;
+  r.home_runs = runs;
+  r.away_runs = runs;
+  play(rng, home_mean, away_mean, r, cap_innings);
+  return r;
 }
 
 namespace {

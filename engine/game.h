@@ -69,6 +69,10 @@ class ExtraInnings {
   void play(Rng& rng, double home_mean, double away_mean, GameResult& r,
             bool cap_innings = true) const;
 
+  // The same from a regulation tie at `runs` to `runs`, returning the result by value.
+  GameResult play_from_tie(Rng& rng, double home_mean, double away_mean, int runs,
+                           bool cap_innings) const;
+
   int regulation_innings() const { return regulation_; }
 
  private:
@@ -91,22 +95,22 @@ class GameEngine {
   // A game between sides with these expected runs (score families).
   template <GameModel M>
   GameResult play_scores(Rng& rng, double home_mean, double away_mean, bool cap = true) const {
-    GameResult r;
+    int home, away;
     if constexpr (M == GameModel::kWeibull) {
       const std::uint64_t bits = rng();
-      r.home_runs = weibull_.score(static_cast<std::uint32_t>(bits >> 32),
-                                   weibull_.scale_for_mean(home_mean));
-      r.away_runs =
-          weibull_.score(static_cast<std::uint32_t>(bits), weibull_.scale_for_mean(away_mean));
+      home = weibull_.score(static_cast<std::uint32_t>(bits >> 32),
+                            weibull_.scale_for_mean(home_mean));
+      away = weibull_.score(static_cast<std::uint32_t>(bits), weibull_.scale_for_mean(away_mean));
     } else {
-      r.home_runs = counts_.score(rng(), home_mean);
-      r.away_runs = counts_.score(rng(), away_mean);
+      home = counts_.score(rng(), home_mean);
+      away = counts_.score(rng(), away_mean);
     }
-    if (r.home_runs == r.away_runs) [[unlikely]] {
-      extra_.play(rng, home_mean, away_mean, r, cap);
-    } else {
-      r.home_won = r.home_runs > r.away_runs;
-    }
+    if (home == away) [[unlikely]]
+      return extra_.play_from_tie(rng, home_mean, away_mean, home, cap);
+    GameResult r;  // by value, never by address: stays in registers
+    r.home_runs = home;
+    r.away_runs = away;
+    r.home_won = home > away;
     return r;
   }
 

@@ -35,7 +35,7 @@ SeasonRecord::SeasonRecord(std::span<const int> division, std::span<const int> c
     size += (3 + static_cast<std::size_t>(w.games)) * n;
   }
   data_.assign(size, 0);
-  scratch_.assign(2 * n, 0);
+  scratch_.assign(3 * n, 0);
   for (int t = 0; t < n_; ++t) {
     at(kDivision, t) = division[t];
     at(kConference, t) = conference[t];
@@ -131,8 +131,9 @@ void SeasonRecord::add_results(const std::uint16_t* winner, const std::uint16_t*
     conf_wins[w] += same_conf;
     conf_losses[l] += same_conf;
   }
-  std::int32_t* in_scope = scratch_.data();    // per team: the batch's games in scope
-  std::int32_t* filled = scratch_.data() + n;  // per team: results written so far
+  std::int32_t* in_scope = scratch_.data();         // per team: the batch's games in scope
+  std::int32_t* filled = scratch_.data() + n;       // per team: results written so far
+  std::int32_t* end_pos = scratch_.data() + 2 * n;  // per team: ring head after the batch
   for (std::size_t k = 0; k < windows_.size(); ++k) {
     const auto scope = windows_[k].scope;
     const std::int32_t* group = scope == config::TiebreakScope::kDivision     ? division
@@ -154,11 +155,14 @@ void SeasonRecord::add_results(const std::uint16_t* winner, const std::uint16_t*
     // have put them: the j-th from the end goes to (new head - 1 - j) mod games. The scan
     // stops once every team's ring is full (or holds all of its games of the batch).
     std::size_t open = 0;
-    for (std::size_t t = 0; t < n; ++t) open += in_scope[t] > 0;
+    for (std::size_t t = 0; t < n; ++t) {
+      open += in_scope[t] > 0;
+      end_pos[t] = (w_head[t] + in_scope[t]) % games;
+    }
     auto place = [&](std::size_t t, std::int32_t won) {
       if (filled[t] >= games || filled[t] >= in_scope[t]) return;
-      const std::int32_t new_head = (w_head[t] + in_scope[t]) % games;
-      const std::int32_t pos = ((new_head - 1 - filled[t]) % games + games) % games;
+      std::int32_t pos = end_pos[t] - 1 - filled[t];  // filled < games: one wrap at most
+      if (pos < 0) pos += games;
       rings[t * static_cast<std::size_t>(games) + static_cast<std::size_t>(pos)] = won;
       ++filled[t];
       open -= filled[t] == games || filled[t] == in_scope[t];
@@ -171,7 +175,7 @@ void SeasonRecord::add_results(const std::uint16_t* winner, const std::uint16_t*
     for (std::size_t t = 0; t < n; ++t) {
       if (in_scope[t] == 0) continue;
       w_count[t] = std::min(games, w_count[t] + in_scope[t]);
-      w_head[t] = (w_head[t] + in_scope[t]) % games;
+      w_head[t] = end_pos[t];
       const std::int32_t* ring = rings + t * static_cast<std::size_t>(games);
       std::int32_t sum = 0;
       for (std::int32_t j = 0; j < games; ++j) sum += ring[j];

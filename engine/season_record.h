@@ -107,7 +107,7 @@ class SeasonRecord {
   std::vector<LastGamesWindow> windows_;
   std::vector<std::size_t> win_base_;  // offset of each window's blocks
   std::vector<std::int32_t> data_;
-  std::vector<std::int32_t> scratch_;  // add_results: per team, games in a window's scope
+  std::vector<std::int32_t> scratch_;  // add_results: three values per team
 };
 
 // An empty record for the season's teams, with the windows its tiebreakers need.

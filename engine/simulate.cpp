@@ -200,14 +200,16 @@ class SeasonRunner {
       }
       extra += r.extra;
       drawn += r.drawn;
-      // Branch-free: the winner is home or away with equal odds, a branch would mispredict.
-      const bool hw = r.home_won;
-      const int h = ht[g], a = at[g];
-      const int hr = std::min(r.home_runs, 65535), ar = std::min(r.away_runs, 65535);
-      win[g] = static_cast<std::uint16_t>(hw ? h : a);
-      lose[g] = static_cast<std::uint16_t>(hw ? a : h);
-      win_runs[g] = static_cast<std::uint16_t>(hw ? hr : ar);
-      lose_runs[g] = static_cast<std::uint16_t>(hw ? ar : hr);
+      // Branch-free selection with a mask: the winner is home or away about equally often, so
+      // a branch would mispredict half the time.
+      const std::uint32_t mask = 0u - static_cast<std::uint32_t>(r.home_won);
+      const std::uint32_t h = ht[g], a = at[g];
+      const auto hr = static_cast<std::uint32_t>(std::min(r.home_runs, 65535));
+      const auto ar = static_cast<std::uint32_t>(std::min(r.away_runs, 65535));
+      win[g] = static_cast<std::uint16_t>(a ^ ((h ^ a) & mask));
+      lose[g] = static_cast<std::uint16_t>(h ^ ((h ^ a) & mask));
+      win_runs[g] = static_cast<std::uint16_t>(ar ^ ((hr ^ ar) & mask));
+      lose_runs[g] = static_cast<std::uint16_t>(hr ^ ((hr ^ ar) & mask));
     }
     w.record.add_results(win, lose, win_runs, lose_runs, count);
     w.tally.add_games(count, extra, drawn);
