@@ -405,3 +405,49 @@ TEST_CASE("bad run options are refused") {
   opt.threads = -1;
   CHECK_THROWS_AS(simulate(plan, opt), std::invalid_argument);
 }
+
+TEST_CASE("other families, a single bracket, extra tiebreak games and an innings cap") {
+  struct Variant {
+    config::ScoreFamily family;
+    bool single;
+    bool extra_game;
+    int cap;
+  };
+  const Variant variants[] = {{config::ScoreFamily::kNegativeBinomial, false, true, 0},
+                              {config::ScoreFamily::kPoisson, true, false, 11},
+                              {config::ScoreFamily::kWeibull, true, true, 10}};
+  for (const Variant& v : variants) {
+    config::Season s = twelve_teams();
+    s.model.family = v.family;
+    if (v.single) s.postseason.format = config::BracketFormat::kSingleBracket;
+    s.tiebreakers.extra_game = v.extra_game;
+    s.league.extra_innings.max_innings = v.cap;
+    models::LeagueRatings r = twelve_ratings(s);
+    r.family = v.family;
+    r.shape = v.family == config::ScoreFamily::kNegativeBinomial ? 8.0 : 1.83;
+    const Plan plan = compile_plan(s, r);
+    RunOptions opt;
+    opt.seed = 21;
+    opt.seasons = 4000;
+    opt.threads = 1;
+    const SimulationResult one = simulate(plan, opt);
+    opt.threads = 2;
+    require_identical(one, simulate(plan, opt));
+    double post = 0, bye = 0, title = 0;
+    for (const TeamOdds& o : one.teams) {
+      post += o.postseason.p;
+      bye += o.bye.p;
+      title += o.title.p;
+    }
+    INFO("family " << static_cast<int>(v.family) << " single " << v.single);
+    CHECK(post == Approx(6.0).epsilon(1e-12));
+    CHECK(bye == Approx(2.0).epsilon(1e-12));
+    CHECK(title == Approx(1.0).epsilon(1e-12));
+    CHECK(one.extra_innings_share > 0.02);
+    CHECK(one.extra_innings_share < 0.2);
+    if (v.cap > 0)
+      CHECK(one.drawn_games > 0);
+    else
+      CHECK(one.drawn_games == 0);
+  }
+}
