@@ -1,4 +1,5 @@
-// The games CSV named by `games_file` in a season file (format in README.md, section "The season file").
+// The games CSV named by `games_file` in a season file (format in README.md, section "The season
+// file").
 #ifndef STANDFAST_CONFIG_GAMES_CSV_H
 #define STANDFAST_CONFIG_GAMES_CSV_H
 

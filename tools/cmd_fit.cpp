@@ -1,7 +1,8 @@
 // `standfast fit FILE [--format table|csv|json] [--output FILE] [--alpha A]`: fits the scoring
 // model of the season file to its played games and prints the league values, the team ratings
 // (plain and schedule-adjusted, with standard errors), the per-team goodness of fit, the AIC of
-// the three scoring families and the Pythagorean expectation. See README.md, section "Scoring models".
+// the three scoring families and the Pythagorean expectation. See README.md, section "Scoring
+// models".
 #include <fmt/core.h>
 
 #include <cmath>
