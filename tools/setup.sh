@@ -16,10 +16,11 @@ if ((${#missing[@]})); then
   echo "setup: installing ${missing[*]}" >&2
   sudo_cmd=()
   [ "$(id -u)" -eq 0 ] || sudo_cmd=(sudo)
-  "${sudo_cmd[@]}" apt-get update
-  DEBIAN_FRONTEND=noninteractive "${sudo_cmd[@]}" apt-get install -y "${missing[@]}"
+  "${sudo_cmd[@]}" apt-get update >&2
+  DEBIAN_FRONTEND=noninteractive "${sudo_cmd[@]}" apt-get install -y "${missing[@]}" >&2
 fi
 
 build_dir=${STANDFAST_BUILD_DIR:-build}
+# Build messages go to stderr so that the output of tools/demo.sh can be piped or redirected.
 cmake -S . -B "$build_dir" -DCMAKE_BUILD_TYPE=Release ${STANDFAST_CMAKE_ARGS:-} >/dev/null
-cmake --build "$build_dir" -j "$(nproc)"
+cmake --build "$build_dir" -j "$(nproc)" >&2
