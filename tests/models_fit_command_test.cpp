@@ -15,27 +15,18 @@
 
 #include "config/load.h"
 #include "models/fit_report.h"
+#include "tests/process_support.h"
 
 namespace {
 
 const std::string PROGRAM = STANDFAST_BINARY_DIR "/tools/standfast";
 const std::string SMALL = STANDFAST_SOURCE_DIR "/scenarios/small/season.yaml";
 
-struct Run {
-  int status = -1;
-  std::string out;
-};
+using Run = standfast::testing::ProcessResult;
 
+// Runs the program with these arguments and captures standard output and standard error.
 Run run(const std::string& args) {
-  Run r;
-  FILE* pipe = ::popen((PROGRAM + " " + args + " 2>&1").c_str(), "r");
-  if (pipe == nullptr) return r;
-  char buf[4096];
-  size_t n;
-  while ((n = fread(buf, 1, sizeof buf, pipe)) > 0) r.out.append(buf, n);
-  const int st = ::pclose(pipe);
-  r.status = WIFEXITED(st) ? WEXITSTATUS(st) : -1;
-  return r;
+  return standfast::testing::run_process(PROGRAM + " " + args + " 2>&1");
 }
 
 }  // namespace

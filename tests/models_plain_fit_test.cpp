@@ -17,26 +17,16 @@
 
 #include "models/plain_fit.h"
 #include "models/synthetic.h"
+#include "tests/process_support.h"
 
 using namespace standfast::models;
 
 namespace {
 
-std::string run_command(const std::string& cmd) {
-  std::string out;
-  FILE* pipe = popen(cmd.c_str(), "r");
-  if (pipe == nullptr) return out;
-  char buf[4096];
-  size_t n;
-  while ((n = fread(buf, 1, sizeof buf, pipe)) > 0) out.append(buf, n);
-  if (pclose(pipe) != 0) return "";
-  return out;
-}
+using standfast::testing::have_python_module;
+using standfast::testing::run_command;
 
-bool have_scipy() {
-  if (!std::filesystem::exists("/usr/bin/python3")) return false;
-  return run_command("/usr/bin/python3 -c 'import scipy.optimize; print(1)' 2>/dev/null") == "1\n";
-}
+bool have_scipy() { return have_python_module("scipy.optimize"); }
 
 double rel(double a, double b) { return std::abs(a - b) / std::abs(b); }
 

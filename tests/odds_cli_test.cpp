@@ -12,6 +12,8 @@
 #include <sstream>
 #include <string>
 
+#include "tests/process_support.h"
+
 namespace fs = std::filesystem;
 
 namespace {
@@ -19,23 +21,11 @@ namespace {
 const std::string PROGRAM = STANDFAST_BINARY_DIR "/tools/standfast";
 const std::string SMALL = STANDFAST_SOURCE_DIR "/scenarios/small/season.yaml";
 
-struct Run {
-  int status = -1;
-  std::string out;
-};
+using Run = standfast::testing::ProcessResult;
 
 // Runs the program with these arguments (standard error discarded) and captures its output.
 Run run(const std::string& args) {
-  const std::string command = PROGRAM + " " + args + " 2>/dev/null";
-  Run r;
-  FILE* pipe = ::popen(command.c_str(), "r");
-  REQUIRE(pipe != nullptr);
-  char buffer[4096];
-  for (std::size_t n; (n = std::fread(buffer, 1, sizeof buffer, pipe)) > 0;)
-    r.out.append(buffer, n);
-  const int raw = ::pclose(pipe);
-  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
-  return r;
+  return standfast::testing::run_process(PROGRAM + " " + args + " 2>/dev/null");
 }
 
 std::string read_file(const fs::path& p) {

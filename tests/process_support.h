@@ -1,0 +1,47 @@
+// Test support: running a shell command and capturing its standard output, and finding out
+// whether the SciPy reference checks can run. Shared by the tests that call the built program
+// or the Python reference scripts.
+#ifndef STANDFAST_TESTS_PROCESS_SUPPORT_H
+#define STANDFAST_TESTS_PROCESS_SUPPORT_H
+
+#include <sys/wait.h>
+
+#include <cstdio>
+#include <filesystem>
+#include <string>
+
+namespace standfast::testing {
+
+struct ProcessResult {
+  int status = -1;  // exit status, -1 when the command could not start or was killed
+  std::string out;  // everything it wrote to standard output
+};
+
+// Runs `command` through the shell and captures its standard output.
+inline ProcessResult run_process(const std::string& command) {
+  ProcessResult r;
+  FILE* pipe = ::popen(command.c_str(), "r");
+  if (pipe == nullptr) return r;
+  char buffer[4096];
+  for (std::size_t n; (n = std::fread(buffer, 1, sizeof buffer, pipe)) > 0;)
+    r.out.append(buffer, n);
+  const int raw = ::pclose(pipe);
+  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
+  return r;
+}
+
+// The standard output of `command`, or "" when it failed.
+inline std::string run_command(const std::string& command) {
+  ProcessResult r = run_process(command);
+  return r.status == 0 ? r.out : std::string{};
+}
+
+// True when /usr/bin/python3 can import `module` (for example "scipy.stats").
+inline bool have_python_module(const std::string& module) {
+  if (!std::filesystem::exists("/usr/bin/python3")) return false;
+  return run_command("/usr/bin/python3 -c 'import " + module + "; print(1)' 2>/dev/null") == "1\n";
+}
+
+}  // namespace standfast::testing
+
+#endif  // STANDFAST_TESTS_PROCESS_SUPPORT_H
