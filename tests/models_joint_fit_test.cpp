@@ -46,20 +46,7 @@ std::map<std::string, double> scipy_fit(const std::string& mode, const std::vect
   }
   const std::string out = run_command(
       "/usr/bin/python3 " STANDFAST_TEST_DATA "/models/fit_ref.py " + mode + " " + path);
-  std::map<std::string, double> values;
-  std::istringstream in(out);
-  std::string line;
-  while (std::getline(in, line)) {
-    std::istringstream ls(line);
-    std::string key, a, b;
-    ls >> key >> a;
-    if (ls >> b) {
-      values[key + a] = std::stod(b);
-    } else {
-      values[key] = std::stod(a);
-    }
-  }
-  return values;
+  return standfast::testing::parse_reference_values(out);
 }
 
 SyntheticLeague small_league() {

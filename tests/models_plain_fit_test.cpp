@@ -57,19 +57,7 @@ TEST_CASE("plain fit agrees with an independent SciPy optimisation") {
   // sf differences; optimize.minimize BFGS); 4 significant digits.
   const std::string out =
       run_command("/usr/bin/python3 " STANDFAST_TEST_DATA "/models/fit_ref.py plain " + path);
-  std::map<std::string, double> ref;
-  std::istringstream in(out);
-  std::string line;
-  while (std::getline(in, line)) {
-    std::istringstream ls(line);
-    std::string key, a, b;
-    ls >> key >> a;
-    if (ls >> b) {
-      ref[key + a] = std::stod(b);
-    } else {
-      ref[key] = std::stod(a);
-    }
-  }
+  std::map<std::string, double> ref = standfast::testing::parse_reference_values(out);
   REQUIRE(ref.count("shape") == 1);
   CHECK(rel(fit.shape, ref["shape"]) < 1e-4);
   CHECK(rel(fit.log_lik, ref["loglik"]) < 1e-6);

@@ -8,6 +8,8 @@
 
 #include <cstdio>
 #include <filesystem>
+#include <map>
+#include <sstream>
 #include <string>
 
 namespace standfast::testing {
@@ -40,6 +42,25 @@ inline std::string run_command(const std::string& command) {
 inline bool have_python_module(const std::string& module) {
   if (!std::filesystem::exists("/usr/bin/python3")) return false;
   return run_command("/usr/bin/python3 -c 'import " + module + "; print(1)' 2>/dev/null") == "1\n";
+}
+
+// Parses the output of a reference script written as lines "key value" or "key index value"
+// into a map keyed "key" or "key" + "index" (for example "offence3").
+inline std::map<std::string, double> parse_reference_values(const std::string& text) {
+  std::map<std::string, double> values;
+  std::istringstream in(text);
+  std::string line;
+  while (std::getline(in, line)) {
+    std::istringstream ls(line);
+    std::string key, a, b;
+    if (!(ls >> key >> a)) continue;
+    if (ls >> b) {
+      values[key + a] = std::stod(b);
+    } else {
+      values[key] = std::stod(a);
+    }
+  }
+  return values;
 }
 
 }  // namespace standfast::testing

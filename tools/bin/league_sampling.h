@@ -1,7 +1,7 @@
-// Random streams and samplers of the league generator (tools/bin/make_league.cpp). They are the
-// generator's own, independent of engine/rng.h, so that the committed scenarios stay the same
-// when the simulation's streams change. Header-only so tests/make_league_test.cpp can check
-// them against independent references.
+// Random streams and samplers of the league generator (tools/bin/make_league.cpp). Its streams
+// are keyed its own way, independent of engine/rng.h's make_stream, so that the committed
+// scenarios stay the same when the simulation's streams change. Header-only so
+// tests/make_league_test.cpp can check them against independent references.
 #ifndef STANDFAST_TOOLS_BIN_LEAGUE_SAMPLING_H
 #define STANDFAST_TOOLS_BIN_LEAGUE_SAMPLING_H
 
@@ -11,16 +11,17 @@
 #include <cstdint>
 #include <pcg_random.hpp>
 
+#include "engine/rng.h"
+
 namespace standfast::tools::gen {
 
-using Rng = pcg64;
-
-// The SplitMix64 finaliser (Steele, Lea & Flood 2014).
-inline std::uint64_t mix64(std::uint64_t z) {
-  z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9ull;
-  z = (z ^ (z >> 27)) * 0x94d049bb133111ebull;
-  return z ^ (z >> 31);
-}
+// The samplers and the SplitMix64 finaliser are the engine's (engine/rng.h); only the way the
+// generator keys its streams is its own.
+using engine::mix64;
+using engine::Rng;
+using engine::standard_normal;
+using engine::uniform01;
+using engine::uniform_below;
 
 // Stream `stream` of the run with this seed: a pcg64 whose 128-bit state is a hash of both.
 inline Rng make_rng(std::uint64_t seed, std::uint64_t stream) {
@@ -28,22 +29,6 @@ inline Rng make_rng(std::uint64_t seed, std::uint64_t stream) {
   const std::uint64_t hi = mix64(seed + GOLDEN * (2 * stream + 1));
   const std::uint64_t lo = mix64(hi ^ (seed + GOLDEN * (2 * stream + 2)));
   return Rng((static_cast<pcg_extras::pcg128_t>(hi) << 64) | lo);
-}
-
-// Uniform on [0, 1) with 53 random bits.
-inline double uniform01(Rng& rng) { return static_cast<double>(rng() >> 11) * 0x1.0p-53; }
-
-// Uniform integer on [0, n), unbiased (pcg's rejection method). n > 0.
-inline std::uint64_t uniform_below(Rng& rng, std::uint64_t n) { return rng(n); }
-
-// Standard normal by the Marsaglia polar method (the spare value is dropped).
-inline double standard_normal(Rng& rng) {
-  for (;;) {
-    const double u = 2.0 * uniform01(rng) - 1.0;
-    const double v = 2.0 * uniform01(rng) - 1.0;
-    const double s = u * u + v * v;
-    if (s > 0.0 && s < 1.0) return u * std::sqrt(-2.0 * std::log(s) / s);
-  }
 }
 
 // Scale a of the Weibull with location -0.5 and shape `shape` whose mean is `mean`:
