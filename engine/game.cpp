@@ -8,29 +8,18 @@ ExtraInnings::ExtraInnings(int regulation_innings, const config::ExtraInningsRul
   if (rule.runner_on_second) per_inning_ *= RUNNER_FACTOR;
 }
 
-void ExtraInnings::play(Rng& rng, double home_mean, double away_mean, GameResult& r,
-                        bool cap_innings) const {
+void ExtraInnings::play_chances(Rng& rng, double home_chance, double away_chance, GameResult& r,
+                                bool cap_innings) const {
   r.extra = true;
-  // Scoring decisions compare 32-bit uniforms with thresholds: P(bits < t) = t / 2^32.
-  const auto threshold = [](double p) { return static_cast<std::uint64_t>(p * 0x1.0p32); };
-  const std::uint64_t t_home = threshold(scoring_chance(home_mean));
-  const std::uint64_t t_away = threshold(scoring_chance(away_mean));
-  const std::uint64_t t_more = threshold(RUN_CONTINUATION);
-  const auto more_runs = [&](int stop) {  // runs after the first, at most stop - 1 in all
-    int runs = 1;
-    while (runs < stop && (rng() >> 32) < t_more) ++runs;
-    return runs;
-  };
   for (int inning = regulation_ + 1;; ++inning) {
     if (cap_innings && max_innings_ > 0 && inning > max_innings_) {
       r.drawn = true;
       r.home_won = (rng() >> 63) != 0;
       return;
     }
-    // One draw decides whether each side scores; the visitors bat first.
     const std::uint64_t bits = rng();
-    const int away = (bits >> 32) < t_away ? more_runs(1 << 30) : 0;
-    const int home = (bits & 0xffffffffu) < t_home ? more_runs(away + 1) : 0;
+    const int away = half_inning_runs(static_cast<std::uint32_t>(bits >> 32), away_chance, 1 << 30);
+    const int home = half_inning_runs(static_cast<std::uint32_t>(bits), home_chance, away + 1);
     r.away_runs += away;
     r.home_runs += home;
     if (home != away) {

@@ -10,6 +10,7 @@
 // With the automatic runner on second, s is multiplied by RUNNER_FACTOR = 2.2 (run-expectancy
 // tables put the chance of scoring with a runner on second and nobody out near 0.6 against
 // about 0.27 with the bases empty; from memory), capped at S_MAX = 0.95.
+// A half-inning takes one 32-bit uniform (ExtraInnings::half_inning_runs).
 // The visitors bat first; the home side bats in the bottom half and stops as soon as it leads
 // (a walk-off counts only the runs up to the winning run). A game still tied after the innings
 // cap (ExtraInningsRule::max_innings) is settled by a fair draw and counted as drawn.
@@ -51,23 +52,40 @@ class ExtraInnings {
     return s < S_MAX ? s : S_MAX;
   }
 
-  // Runs of one half-inning (0 when not scoring), at most `stop` (the walk-off limit).
-  static int half_inning(Rng& rng, double s, int stop) {
-    const std::uint64_t bits = rng();
-    if (static_cast<double>(bits >> 32) * 0x1.0p-32 >= s) return 0;
-    int runs = 1;
-    std::uint64_t b = bits & 0xffffffffu;
-    while (runs < stop && static_cast<double>(b) * 0x1.0p-32 < RUN_CONTINUATION) {
-      ++runs;
-      b = rng() >> 32;
+  // Runs of one half-inning from one 32-bit uniform u (0 when not scoring), at most `stop` (the
+  // walk-off limit; stop >= 1). The side scores when u < s 2^32; given that, u / (s 2^32) is
+  // again uniform, so counting the k = 0, 1, 2, ... with u < s q^k 2^32 gives P(runs > k |
+  // scoring) = q^k, the geometric law above, from the same draw. The first six comparisons
+  // are made without branches (more than six runs: q^5 = 1.5% of scoring half-innings). (The
+  // 32-bit grain cuts the law off where s q^k 2^32 < 1: beyond 20 runs for any s >= 0.01.)
+  static int half_inning_runs(std::uint32_t u, double s, int stop) {
+    constexpr double q = RUN_CONTINUATION;
+    const auto x = static_cast<double>(u);
+    const double t = s * 0x1.0p32;
+    int runs = (x < t) + (x < t * q) + (x < t * (q * q)) + (x < t * (q * q * q)) +
+               (x < t * (q * q * q * q)) + (x < t * (q * q * q * q * q));
+    if (runs == 6) [[unlikely]] {
+      for (double tk = t * (q * q * q * q * q * q); x < tk; tk *= q) ++runs;
     }
-    return runs;
+    return runs < stop ? runs : stop;
   }
 
-  // Plays from a tie; adds the extra runs to `r` and sets home_won, extra and drawn.
+  // The same from the rng (its high 32 bits).
+  static int half_inning(Rng& rng, double s, int stop) {
+    return half_inning_runs(static_cast<std::uint32_t>(rng() >> 32), s, stop);
+  }
+
+  // Plays from a tie; adds the extra runs to `r` and sets home_won, extra and drawn. One draw
+  // per inning: the visitors' half takes its high 32 bits, the home half its low 32 bits.
   // `cap_innings`: false in the postseason (a series game is played to a decision).
   void play(Rng& rng, double home_mean, double away_mean, GameResult& r,
-            bool cap_innings = true) const;
+            bool cap_innings = true) const {
+    play_chances(rng, scoring_chance(home_mean), scoring_chance(away_mean), r, cap_innings);
+  }
+
+  // The same with the sides' scoring chances per half-inning (scoring_chance of their means).
+  void play_chances(Rng& rng, double home_chance, double away_chance, GameResult& r,
+                    bool cap_innings = true) const;
 
   // The same from a regulation tie at `runs` to `runs`, returning the result by value.
   GameResult play_from_tie(Rng& rng, double home_mean, double away_mean, int runs,

@@ -3,9 +3,11 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <map>
 #include <numeric>
 #include <stdexcept>
 #include <string>
+#include <tuple>
 
 #include "engine/postseason.h"
 #include "models/ratings.h"
@@ -282,6 +284,33 @@ Plan compile_plan(const config::Season& season, const models::LeagueRatings& rat
     plan.final_slot.push_back(
         static_cast<std::uint16_t>(has[static_cast<std::size_t>(t)] ? t + n : t));
   plan.played = played_record(season);
+  {
+    // Matchups: games with the same slots and venue factors; a matchup is closed after
+    // TotalsLayout::MAX_GROUP_GAMES games (the season's tally groups games by matchup).
+    std::map<std::tuple<std::uint16_t, std::uint16_t, float, float>, std::uint32_t> index;
+    std::vector<std::uint32_t> size;
+    for (std::size_t g = 0; g < plan.home_team.size(); ++g) {
+      const Matchup m{plan.home_slot[g], plan.away_slot[g], plan.home_factor[g],
+                      plan.away_factor[g]};
+      const auto key = std::make_tuple(m.home_slot, m.away_slot, m.home_factor, m.away_factor);
+      auto it = index.find(key);
+      if (it == index.end() || size[it->second] == TotalsLayout::MAX_GROUP_GAMES) {
+        index[key] = static_cast<std::uint32_t>(plan.matchups.size());
+        plan.matchups.push_back(m);
+        size.push_back(0);
+        it = index.find(key);
+      }
+      ++size[it->second];
+      plan.game_matchup.push_back(it->second);
+    }
+  }
+  plan.totals = TotalsLayout(plan.home_team, plan.away_team, plan.game_matchup, plan.played);
+  if (plan.draw_strengths) {
+    const std::size_t m = 2 * un;
+    plan.cholesky_columns.reserve(m * (m + 1) / 2);
+    for (std::size_t j = 0; j < m; ++j)
+      for (std::size_t i = j; i < m; ++i) plan.cholesky_columns.push_back(plan.cholesky[i * m + j]);
+  }
   plan.seeder = Seeder(season);
   compile_postseason(season, plan);
   return plan;

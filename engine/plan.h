@@ -10,6 +10,7 @@
 
 #include "config/season.h"
 #include "engine/season_record.h"
+#include "engine/season_totals.h"
 #include "engine/seeding.h"
 
 namespace standfast::models {
@@ -29,6 +30,13 @@ struct SlotOverride {
   double defence = 1.0;  // runs allowed / league mean (multiplier), when has_runs_allowed
   double win_pct = 0.5;  // when has_win_pct
   double blend = 1.0;    // weight of the override against the drawn values
+};
+
+// A distinct (home slot, away slot, venue factors) combination of the remaining games. A season
+// computes each one's scoring parameters once, not once per game (a series shares one).
+struct Matchup {
+  std::uint16_t home_slot = 0, away_slot = 0;
+  float home_factor = 1, away_factor = 1;
 };
 
 // One postseason round as the engine plays it.
@@ -67,9 +75,12 @@ class Plan {
   config::ExtraInningsRule extra_innings;
 
   // Strengths: point estimates of the logs of the offence and defence multipliers, and the lower
-  // Cholesky factor (row-major, 2n x 2n, offences first) of their covariance.
+  // Cholesky factor (row-major, 2n x 2n, offences first) of their covariance; cholesky_columns
+  // holds the same factor column by column (column j: rows j..2n-1), the order the season's
+  // draw reads it in.
   std::vector<double> log_offence, log_defence;
   std::vector<double> cholesky;
+  std::vector<double> cholesky_columns;
   bool draw_strengths = false;
   std::vector<double> win_pct;  // log5 strengths (per team), from overrides or ratings
 
@@ -84,6 +95,9 @@ class Plan {
   std::vector<float> home_factor, away_factor;  // venue factor (x home edge for the home side)
   std::vector<config::DayNumber> day;           // INT32_MAX when not known
   std::vector<int> game_index;                  // index into Season::games
+  std::vector<Matchup> matchups;                // distinct combinations, in first-game order
+  std::vector<std::uint32_t> game_matchup;      // per remaining game: index into matchups
+  TotalsLayout totals;                          // how the season loop tallies its results
 
   // Teams and groups.
   std::vector<std::string> team_ids;

@@ -51,10 +51,19 @@ WeibullTable::WeibullTable(double shape) : shape_(shape), inv_shape_(0), inv_gam
   inv_shape_ = 1.0 / shape;
   inv_gamma_ = 1.0 / std::tgamma(1.0 + inv_shape_);
   constexpr int CELLS = 1 << CELL_BITS;
-  quantile_.resize(CELLS + 1);
+  // Q at the cell points u = i / 4096 (rounded to float, as the interpolation has always used
+  // them), then per cell the start (shifted by half a unit of the 32-bit uniform, so that the
+  // draw's fraction needs no offset) and the slope across the cell.
+  std::vector<double> point(CELLS + 1);
   for (int i = 0; i <= CELLS; ++i) {
     const double u = static_cast<double>(i) / CELLS;
-    quantile_[i] = i == CELLS ? 0.0f : static_cast<float>(std::pow(-std::log1p(-u), inv_shape_));
+    point[i] = i == CELLS ? 0.0 : static_cast<float>(std::pow(-std::log1p(-u), inv_shape_));
+  }
+  cells_.resize(2 * CELLS);
+  for (int i = 0; i < CELLS; ++i) {
+    const double slope = point[i + 1] - point[i];
+    cells_[2 * i] = static_cast<float>(point[i] + slope * (0.5 / (1 << FRAC_BITS)));
+    cells_[2 * i + 1] = static_cast<float>(slope);
   }
   const auto n = static_cast<std::size_t>(MAX_TABLE_MEAN / MEAN_STEP) + 1;
   correction_.resize(n);

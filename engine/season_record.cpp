@@ -35,7 +35,6 @@ SeasonRecord::SeasonRecord(std::span<const int> division, std::span<const int> c
     size += (3 + static_cast<std::size_t>(w.games)) * n;
   }
   data_.assign(size, 0);
-  scratch_.assign(3 * n, 0);
   for (int t = 0; t < n_; ++t) {
     at(kDivision, t) = division[t];
     at(kConference, t) = conference[t];
@@ -98,90 +97,37 @@ void SeasonRecord::add_result(int winner, int loser, int winner_runs, int loser_
   }
 }
 
-void SeasonRecord::add_results(const std::uint16_t* winner, const std::uint16_t* loser,
-                               const std::uint16_t* winner_runs, const std::uint16_t* loser_runs,
-                               std::size_t count) {
+void SeasonRecord::set_window(int k, int t, std::span<const std::int32_t> oldest_first) {
   const auto n = static_cast<std::size_t>(n_);
-  std::int32_t* d = data_.data();
-  std::int32_t* wins = d + kWins * n;
-  std::int32_t* losses = d + kLosses * n;
-  std::int32_t* runs_for = d + kRunsFor * n;
-  std::int32_t* runs_against = d + kRunsAgainst * n;
-  std::int32_t* div_wins = d + kDivWins * n;
-  std::int32_t* div_losses = d + kDivLosses * n;
-  std::int32_t* conf_wins = d + kConfWins * n;
-  std::int32_t* conf_losses = d + kConfLosses * n;
-  const std::int32_t* division = d + kDivision * n;
-  const std::int32_t* conference = d + kConference * n;
-  std::int32_t* h2h = d + h2h_;
-  for (std::size_t i = 0; i < count; ++i) {
-    const std::size_t w = winner[i], l = loser[i];
-    const std::int32_t wr = winner_runs[i], lr = loser_runs[i];
-    ++wins[w];
-    ++losses[l];
-    runs_for[w] += wr;
-    runs_against[w] += lr;
-    runs_for[l] += lr;
-    runs_against[l] += wr;
-    ++h2h[w * n + l];
-    const std::int32_t same_div = division[w] == division[l];
-    const std::int32_t same_conf = conference[w] == conference[l];
-    div_wins[w] += same_div;
-    div_losses[l] += same_div;
-    conf_wins[w] += same_conf;
-    conf_losses[l] += same_conf;
+  const auto games = static_cast<std::size_t>(windows_[k].games);
+  std::int32_t* base = data_.data() + win_base_[k];
+  std::int32_t* ring = base + 3 * n + static_cast<std::size_t>(t) * games;
+  const std::size_t m = std::min(games, oldest_first.size());
+  const std::int32_t* from = oldest_first.data() + (oldest_first.size() - m);
+  std::int32_t wins = 0;
+  for (std::size_t j = 0; j < m; ++j) {
+    ring[j] = from[j];
+    wins += from[j];
   }
-  std::int32_t* in_scope = scratch_.data();         // per team: the batch's games in scope
-  std::int32_t* filled = scratch_.data() + n;       // per team: results written so far
-  std::int32_t* end_pos = scratch_.data() + 2 * n;  // per team: ring head after the batch
-  for (std::size_t k = 0; k < windows_.size(); ++k) {
-    const auto scope = windows_[k].scope;
-    const std::int32_t* group = scope == config::TiebreakScope::kDivision     ? division
-                                : scope == config::TiebreakScope::kConference ? conference
-                                                                              : nullptr;
-    const auto games = static_cast<std::int32_t>(windows_[k].games);
-    std::int32_t* base = d + win_base_[k];
-    std::int32_t* w_wins = base;
-    std::int32_t* w_count = base + n;
-    std::int32_t* w_head = base + 2 * n;
-    std::int32_t* rings = base + 3 * n;
-    std::fill(in_scope, in_scope + 2 * n, 0);
-    for (std::size_t i = 0; i < count; ++i) {
-      const std::int32_t in = group ? group[winner[i]] == group[loser[i]] : 1;
-      in_scope[winner[i]] += in;
-      in_scope[loser[i]] += in;
-    }
-    // The last `games` in-scope results of each team, written where sequential pushes would
-    // have put them: the j-th from the end goes to (new head - 1 - j) mod games. The scan
-    // stops once every team's ring is full (or holds all of its games of the batch).
-    std::size_t open = 0;
-    for (std::size_t t = 0; t < n; ++t) {
-      open += in_scope[t] > 0;
-      end_pos[t] = (w_head[t] + in_scope[t]) % games;
-    }
-    auto place = [&](std::size_t t, std::int32_t won) {
-      if (filled[t] >= games || filled[t] >= in_scope[t]) return;
-      std::int32_t pos = end_pos[t] - 1 - filled[t];  // filled < games: one wrap at most
-      if (pos < 0) pos += games;
-      rings[t * static_cast<std::size_t>(games) + static_cast<std::size_t>(pos)] = won;
-      ++filled[t];
-      open -= filled[t] == games || filled[t] == in_scope[t];
-    };
-    for (std::size_t i = count; i-- > 0 && open > 0;) {
-      if (group && group[winner[i]] != group[loser[i]]) continue;
-      place(winner[i], 1);
-      place(loser[i], 0);
-    }
-    for (std::size_t t = 0; t < n; ++t) {
-      if (in_scope[t] == 0) continue;
-      w_count[t] = std::min(games, w_count[t] + in_scope[t]);
-      w_head[t] = end_pos[t];
-      const std::int32_t* ring = rings + t * static_cast<std::size_t>(games);
-      std::int32_t sum = 0;
-      for (std::int32_t j = 0; j < games; ++j) sum += ring[j];
-      w_wins[t] = sum;
-    }
-  }
+  // The state push_window leaves after pushing these m results into an empty ring.
+  base[t] = wins;
+  base[n + t] = static_cast<std::int32_t>(m);
+  base[2 * n + t] = static_cast<std::int32_t>(m == games ? 0 : m);
+}
+
+std::vector<std::int32_t> SeasonRecord::window_results(int k, int t) const {
+  const auto n = static_cast<std::size_t>(n_);
+  const auto games = static_cast<std::size_t>(windows_[k].games);
+  const std::int32_t* base = data_.data() + win_base_[k];
+  const std::int32_t* ring = base + 3 * n + static_cast<std::size_t>(t) * games;
+  const auto count = static_cast<std::size_t>(base[n + t]);
+  const auto head = static_cast<std::size_t>(base[2 * n + t]);
+  // The oldest result sits at head when the ring is full, at 0 otherwise.
+  const std::size_t start = count == games ? head : 0;
+  std::vector<std::int32_t> out;
+  out.reserve(count);
+  for (std::size_t j = 0; j < count; ++j) out.push_back(ring[(start + j) % games]);
+  return out;
 }
 
 SeasonRecord make_record(const config::Season& season) {

@@ -3,7 +3,8 @@
 // tiebreakers ask for. One SeasonRecord is built from the played games; the engine copies it at
 // the start of every simulated season and adds the simulated results. Copying a record into
 // another of the same league reuses its storage (one std::vector of int32), and add_result never
-// allocates.
+// allocates. The engine adds a season's remaining games in bulk (add_team_results, add_h2h,
+// set_window; see engine/season_totals.h).
 //
 // Games have a winner and a loser (a game is never left tied; extra innings or the league's
 // draw settle it). Results must be added in chronological order: the last-games windows are
@@ -50,13 +51,32 @@ class SeasonRecord {
   // chronological order (the last-games windows depend on it). No allocation.
   void add_result(int winner, int loser, int winner_runs, int loser_runs);
 
-  // Adds games [0, count) in chronological order: game i was won by winner[i] over loser[i],
-  // winner_runs[i] to loser_runs[i]. Leaves exactly the record that add_result would leave
-  // called for each game in turn, but faster (no branch per game; the last-games rings are
-  // filled from the end). For the simulation engine's inner loop. No allocation.
-  void add_results(const std::uint16_t* winner, const std::uint16_t* loser,
-                   const std::uint16_t* winner_runs, const std::uint16_t* loser_runs,
-                   std::size_t count);
+  // Bulk additions for the simulation engine, which tallies a season's remaining games outside
+  // the record (engine/season_totals.h) and then adds them here. Together they leave exactly the
+  // record that add_result would leave called for each of those games in turn.
+  struct TeamResults {
+    int wins = 0, losses = 0, runs_for = 0, runs_against = 0;
+    int division_wins = 0, division_losses = 0, conference_wins = 0, conference_losses = 0;
+  };
+  void add_team_results(int t, const TeamResults& r) {
+    at(kWins, t) += r.wins;
+    at(kLosses, t) += r.losses;
+    at(kRunsFor, t) += r.runs_for;
+    at(kRunsAgainst, t) += r.runs_against;
+    at(kDivWins, t) += r.division_wins;
+    at(kDivLosses, t) += r.division_losses;
+    at(kConfWins, t) += r.conference_wins;
+    at(kConfLosses, t) += r.conference_losses;
+  }
+  // Adds `wins` wins of team i over team j.
+  void add_h2h(int i, int j, int wins) {
+    data_[h2h_ + static_cast<std::size_t>(i) * n_ + j] += wins;
+  }
+  // Replaces team t's window k by these results (1 won, 0 lost), oldest first; only the last
+  // window(k).games of them are kept.
+  void set_window(int k, int t, std::span<const std::int32_t> oldest_first);
+  // Team t's results in window k (1 won, 0 lost), oldest first.
+  std::vector<std::int32_t> window_results(int k, int t) const;
 
   int wins(int t) const { return at(kWins, t); }
   int losses(int t) const { return at(kLosses, t); }
@@ -107,7 +127,6 @@ class SeasonRecord {
   std::vector<LastGamesWindow> windows_;
   std::vector<std::size_t> win_base_;  // offset of each window's blocks
   std::vector<std::int32_t> data_;
-  std::vector<std::int32_t> scratch_;  // add_results: three values per team
 };
 
 // An empty record for the season's teams, with the windows its tiebreakers need.

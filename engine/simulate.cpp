@@ -13,6 +13,7 @@
 
 #include "engine/game.h"
 #include "engine/postseason.h"
+#include "engine/season_totals.h"
 #include "engine/streams.h"
 #include "engine/tally.h"
 
@@ -24,11 +25,19 @@ namespace {
 // stream placement (an O(log n) jump) negligible.
 constexpr std::uint64_t GRAIN = 128;
 
+// A matchup's parameters for one season: per side the Weibull scale or the count family's mean
+// (log5: home holds the home side's chance), and the scoring chance of an extra half-inning.
+struct MatchupParams {
+  double home = 0, away = 0;  // adjacent: WeibullTable::score_pair reads both at once
+  double home_chance = 0, away_chance = 0;
+};
+
 // Per-thread working space and tallies. Holds no random state.
 struct Worker {
   std::vector<double> off, def, odds;  // per slot: league mean x offence, defence, log5 odds
   std::vector<double> z, x;            // normal draws and correlated log deviations
-  std::vector<std::uint16_t> winner, loser, winner_runs, loser_runs;  // per remaining game
+  std::vector<MatchupParams> matchup;  // per matchup of the plan
+  SeasonTotals totals;
   SeasonRecord record;
   LeagueRanking ranking;
   TiebreakScratch scratch;
@@ -45,10 +54,8 @@ struct Worker {
         odds(static_cast<std::size_t>(plan.slots)),
         z(2 * static_cast<std::size_t>(plan.teams)),
         x(2 * static_cast<std::size_t>(plan.teams)),
-        winner(plan.remaining_games()),
-        loser(plan.remaining_games()),
-        winner_runs(plan.remaining_games()),
-        loser_runs(plan.remaining_games()),
+        matchup(plan.matchups.size()),
+        totals(plan.totals),
         record(plan.played),
         ranking(plan.seeder.make_ranking()),
         scratch(plan.seeder.make_scratch()),
@@ -126,13 +133,17 @@ class SeasonRunner {
     const auto n = static_cast<std::size_t>(plan_.teams);
     if (plan_.draw_strengths) {
       const std::size_t m = 2 * n;
-      for (std::size_t i = 0; i < m; ++i) w.z[i] = standard_normal(rng);
-      const double* l = plan_.cholesky.data();
-      for (std::size_t i = 0; i < m; ++i) {
-        const double* row = l + i * m;
-        double s = 0;
-        for (std::size_t j = 0; j <= i; ++j) s += row[j] * w.z[j];
-        w.x[i] = s;
+      standard_normals(rng, w.z.data(), m);
+      // x = L z column by column: each x[i] sums its terms in the order j = 0..i, as a row-wise
+      // product would, but the inner loop runs over contiguous memory without a dependency
+      // chain, so the compiler vectorises it.
+      double* x = w.x.data();
+      std::fill(x, x + m, 0.0);
+      const double* col = plan_.cholesky_columns.data();
+      for (std::size_t j = 0; j < m; ++j) {
+        const double zj = w.z[j];
+        for (std::size_t i = j; i < m; ++i) x[i] += col[i - j] * zj;
+        col += m - j;
       }
     } else {
       std::fill(w.x.begin(), w.x.end(), 0.0);
@@ -171,47 +182,90 @@ class SeasonRunner {
     }
   }
 
+  // The season's parameters of every matchup (what the per-game loop would otherwise compute
+  // once per game).
   template <GameModel M>
-  void play_regular(Rng& rng, Worker& w) const {
-    const std::size_t count = plan_.remaining_games();
-    const std::uint16_t* hs = plan_.home_slot.data();
-    const std::uint16_t* as = plan_.away_slot.data();
-    const std::uint16_t* ht = plan_.home_team.data();
-    const std::uint16_t* at = plan_.away_team.data();
-    const float* hf = plan_.home_factor.data();
-    const float* af = plan_.away_factor.data();
+  void prepare_matchups(Worker& w) const {
     const double* off = w.off.data();
     const double* def = w.def.data();
     const double* odds = w.odds.data();
-    std::uint64_t extra = 0, drawn = 0;
-    std::uint16_t* win = w.winner.data();
-    std::uint16_t* lose = w.loser.data();
-    std::uint16_t* win_runs = w.winner_runs.data();
-    std::uint16_t* lose_runs = w.loser_runs.data();
-    for (std::size_t g = 0; g < count; ++g) {
-      GameResult r;
+    const ExtraInnings& extra = games_.extra_innings();
+    for (std::size_t i = 0; i < plan_.matchups.size(); ++i) {
+      const Matchup& m = plan_.matchups[i];
+      MatchupParams& p = w.matchup[i];
       if constexpr (M == GameModel::kLog5) {
-        const double oh = odds[hs[g]] * home_odds_factor_;
-        r = GameEngine::play_log5(rng, oh / (oh + odds[as[g]]));
+        const double oh = odds[m.home_slot] * home_odds_factor_;
+        p.home = oh / (oh + odds[m.away_slot]);
       } else {
-        const double hm = off[hs[g]] * def[as[g]] * static_cast<double>(hf[g]);
-        const double am = off[as[g]] * def[hs[g]] * static_cast<double>(af[g]);
-        r = games_.play_scores<M>(rng, hm, am);
+        const double hm = off[m.home_slot] * def[m.away_slot] * static_cast<double>(m.home_factor);
+        const double am = off[m.away_slot] * def[m.home_slot] * static_cast<double>(m.away_factor);
+        if constexpr (M == GameModel::kWeibull) {
+          p.home = games_.weibull().scale_for_mean(hm);
+          p.away = games_.weibull().scale_for_mean(am);
+        } else {
+          p.home = hm;
+          p.away = am;
+        }
+        p.home_chance = extra.scoring_chance(hm);
+        p.away_chance = extra.scoring_chance(am);
       }
-      extra += r.extra;
-      drawn += r.drawn;
-      // Branch-free selection with a mask: the winner is home or away about equally often, so
-      // a branch would mispredict half the time.
-      const std::uint32_t mask = 0u - static_cast<std::uint32_t>(r.home_won);
-      const std::uint32_t h = ht[g], a = at[g];
-      const auto hr = static_cast<std::uint32_t>(std::min(r.home_runs, 65535));
-      const auto ar = static_cast<std::uint32_t>(std::min(r.away_runs, 65535));
-      win[g] = static_cast<std::uint16_t>(a ^ ((h ^ a) & mask));
-      lose[g] = static_cast<std::uint16_t>(h ^ ((h ^ a) & mask));
-      win_runs[g] = static_cast<std::uint16_t>(ar ^ ((hr ^ ar) & mask));
-      lose_runs[g] = static_cast<std::uint16_t>(hr ^ ((hr ^ ar) & mask));
     }
-    w.record.add_results(win, lose, win_runs, lose_runs, count);
+  }
+
+  template <GameModel M>
+  void play_regular(Rng& stream, Worker& w) const {
+    prepare_matchups<M>(w);
+    // The loop draws from a local copy whose address is never taken, so its state stays in
+    // registers: the stream itself lives in memory, and every store of the loop could alias it,
+    // which would put a store-to-load round trip on the chain from one draw to the next.
+    Rng rng = stream;
+    const std::size_t count = plan_.remaining_games();
+    const std::uint32_t* game_matchup = plan_.game_matchup.data();
+    const MatchupParams* params = w.matchup.data();
+    const WeibullTable& weibull = games_.weibull();
+    const CountTable& counts = games_.counts();
+    const ExtraInnings& extra_innings = games_.extra_innings();
+    w.totals.clear();
+    const SeasonTotals::Sink totals = w.totals.sink();
+    std::uint64_t extra = 0, drawn = 0;
+    for (std::size_t g = 0; g < count; ++g) {
+      const std::uint32_t m = game_matchup[g];
+      const MatchupParams& p = params[m];
+      std::uint32_t home_won, hr = 0, ar = 0;
+      if constexpr (M == GameModel::kLog5) {
+        home_won = uniform01(rng) < p.home;
+      } else {
+        int h, a;
+        if constexpr (M == GameModel::kWeibull) {
+          const WeibullTable::Pair score = weibull.score_pair(rng(), &p.home);
+          h = score.home;
+          a = score.away;
+        } else {
+          h = counts.score(rng(), p.home);
+          a = counts.score(rng(), p.away);
+        }
+        if (h == a) [[unlikely]] {
+          GameResult r;
+          r.home_runs = h;
+          r.away_runs = a;
+          Rng spill = rng;  // the rare path works on a copy in memory
+          extra_innings.play_chances(spill, p.home_chance, p.away_chance, r);
+          rng = spill;
+          ++extra;
+          drawn += r.drawn;
+          h = r.home_runs;
+          a = r.away_runs;
+          home_won = r.home_won;
+        } else {
+          home_won = h > a;
+        }
+        hr = static_cast<std::uint32_t>(std::min<int>(h, TotalsLayout::MAX_RUNS));
+        ar = static_cast<std::uint32_t>(std::min<int>(a, TotalsLayout::MAX_RUNS));
+      }
+      totals.add(g, m, home_won, hr, ar);
+    }
+    stream = rng;
+    w.totals.add_to(w.record);
     w.tally.add_games(count, extra, drawn);
   }
 

@@ -1,0 +1,124 @@
+// Tests for engine/season_totals.h: the engine's bulk tally of a season's remaining games must
+// leave exactly the record that SeasonRecord::add_result leaves game by game (an equivalence
+// check against the plain definition; invented random games, not reference data).
+#include "engine/season_totals.h"
+
+#include <catch2/catch.hpp>
+#include <cstdint>
+#include <vector>
+
+using standfast::config::TiebreakScope;
+using standfast::engine::LastGamesWindow;
+using standfast::engine::SeasonRecord;
+using standfast::engine::SeasonTotals;
+using standfast::engine::TotalsLayout;
+
+namespace {
+
+void require_same(const SeasonRecord& a, const SeasonRecord& b) {
+  const int n = a.team_count();
+  for (int t = 0; t < n; ++t) {
+    REQUIRE(a.wins(t) == b.wins(t));
+    REQUIRE(a.losses(t) == b.losses(t));
+    REQUIRE(a.runs_for(t) == b.runs_for(t));
+    REQUIRE(a.runs_against(t) == b.runs_against(t));
+    REQUIRE(a.division_wins(t) == b.division_wins(t));
+    REQUIRE(a.division_losses(t) == b.division_losses(t));
+    REQUIRE(a.conference_wins(t) == b.conference_wins(t));
+    REQUIRE(a.conference_losses(t) == b.conference_losses(t));
+    for (int u = 0; u < n; ++u) REQUIRE(a.h2h_wins(t, u) == b.h2h_wins(t, u));
+    for (int k = 0; k < a.window_count(); ++k) {
+      REQUIRE(a.last_wins(k, t) == b.last_wins(k, t));
+      REQUIRE(a.last_losses(k, t) == b.last_losses(k, t));
+      REQUIRE(a.window_results(k, t) == b.window_results(k, t));
+    }
+  }
+}
+
+}  // namespace
+
+TEST_CASE("season totals added in bulk equal add_result game by game") {
+  // 7 teams in 3 divisions and 2 conferences, three window scopes (one longer than some teams'
+  // remaining games in scope, so played results stay in it), a few played games first.
+  const std::vector<int> div{1, 1, 2, 2, 3, 3, 3};
+  const std::vector<int> conf{7, 7, 7, 7, 8, 8, 8};
+  const std::vector<LastGamesWindow> windows{
+      {3, TiebreakScope::kLeague}, {6, TiebreakScope::kConference}, {2, TiebreakScope::kDivision}};
+  SeasonRecord base(div, conf, windows);
+  std::uint64_t x = 12345;
+  auto next = [&x] {
+    x = x * 6364136223846793005ull + 1442695040888963407ull;
+    return static_cast<int>(x >> 33);
+  };
+  for (int i = 0; i < 25; ++i) {
+    const int a = next() % 7;
+    const int b = (a + 1 + next() % 6) % 7;
+    base.add_result(a, b, 4 + next() % 3, next() % 4);
+  }
+  for (int count : {0, 1, 9, 60}) {
+    // Groups by (home, away) pair; a pair's games alternate between two groups, as a long
+    // matchup split by the engine would.
+    std::vector<std::uint16_t> home, away;
+    std::vector<std::uint32_t> group;
+    std::vector<std::int64_t> group_of(7 * 7 * 2, -1);
+    std::uint32_t groups = 0;
+    for (int i = 0; i < count; ++i) {
+      const int a = next() % 7;
+      const int b = (a + 1 + next() % 6) % 7;
+      home.push_back(static_cast<std::uint16_t>(a));
+      away.push_back(static_cast<std::uint16_t>(b));
+      std::int64_t& k = group_of[static_cast<std::size_t>((a * 7 + b) * 2 + i % 2)];
+      if (k < 0) k = groups++;
+      group.push_back(static_cast<std::uint32_t>(k));
+    }
+    const TotalsLayout layout(home, away, group, base);
+    REQUIRE(layout.groups() == groups);
+    SeasonTotals totals(layout);
+    for (int season = 0; season < 3; ++season) {  // the same totals reused after clear()
+      totals.clear();
+      SeasonRecord one = base;
+      for (int g = 0; g < count; ++g) {
+        const auto h = home[static_cast<std::size_t>(g)], a = away[static_cast<std::size_t>(g)];
+        const auto hr = static_cast<std::uint32_t>(next() % 12);
+        auto ar = static_cast<std::uint32_t>(next() % 12);
+        if (ar == hr) ++ar;
+        const std::uint32_t home_won = hr > ar;
+        totals.add(static_cast<std::size_t>(g), group[static_cast<std::size_t>(g)], home_won, hr,
+                   ar);
+        if (home_won)
+          one.add_result(h, a, static_cast<int>(hr), static_cast<int>(ar));
+        else
+          one.add_result(a, h, static_cast<int>(ar), static_cast<int>(hr));
+      }
+      SeasonRecord bulk = base;
+      totals.add_to(bulk);
+      require_same(bulk, one);
+      // Later single results keep agreeing (ring heads in the same place).
+      one.add_result(5, 4, 2, 1);
+      bulk.add_result(5, 4, 2, 1);
+      one.add_result(0, 2, 2, 1);
+      bulk.add_result(0, 2, 2, 1);
+      require_same(bulk, one);
+    }
+  }
+}
+
+TEST_CASE("the totals layout refuses bad teams, bad groups and oversized groups") {
+  const std::vector<int> div{1, 2, 2};
+  const std::vector<int> conf{1, 1, 1};
+  const SeasonRecord base(div, conf, {});
+  const std::vector<std::uint16_t> h{0}, same{0}, out{5}, one{1};
+  const std::vector<std::uint32_t> g0{0}, g1{1};
+  REQUIRE_THROWS_AS(TotalsLayout(h, same, g0, base), std::invalid_argument);
+  REQUIRE_THROWS_AS(TotalsLayout(h, out, g0, base), std::invalid_argument);
+  REQUIRE_THROWS_AS(TotalsLayout(h, one, g1, base), std::invalid_argument);  // group 0 empty
+  const std::vector<std::uint16_t> h2{0, 0}, a2{1, 2};
+  const std::vector<std::uint32_t> g00{0, 0};
+  REQUIRE_THROWS_AS(TotalsLayout(h2, a2, g00, base), std::invalid_argument);  // mixed teams
+  const std::vector<std::uint16_t> hs(TotalsLayout::MAX_GROUP_GAMES + 1, 0),
+      as(TotalsLayout::MAX_GROUP_GAMES + 1, 1);
+  std::vector<std::uint32_t> gs(TotalsLayout::MAX_GROUP_GAMES + 1, 0);
+  REQUIRE_THROWS_AS(TotalsLayout(hs, as, gs, base), std::invalid_argument);
+  gs.back() = 1;
+  REQUIRE_NOTHROW(TotalsLayout(hs, as, gs, base));
+}
