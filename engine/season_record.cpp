@@ -41,7 +41,28 @@ SeasonRecord::SeasonRecord(std::span<const int> division, std::span<const int> c
   }
 }
 
+SeasonRecord::SeasonRecord(const SeasonRecord& other)
+    : n_(other.n_), h2h_(other.h2h_), windows_(other.windows_), win_base_(other.win_base_) {
+  other.settle_windows();
+  data_ = other.data_;
+}
+
+SeasonRecord& SeasonRecord::operator=(const SeasonRecord& other) {
+  if (this == &other) return *this;
+  other.settle_windows();
+  fill_ = nullptr;  // this record's own deferred windows are overwritten
+  fill_context_ = nullptr;
+  n_ = other.n_;
+  h2h_ = other.h2h_;
+  windows_ = other.windows_;
+  win_base_ = other.win_base_;
+  data_ = other.data_;  // same size: reuses the storage
+  return *this;
+}
+
 void SeasonRecord::clear() {
+  fill_ = nullptr;
+  fill_context_ = nullptr;
   std::fill(data_.begin() + static_cast<std::ptrdiff_t>(kWins) * n_, data_.end(), 0);
 }
 
@@ -71,6 +92,7 @@ void SeasonRecord::push_window(int k, int team, int won) {
 }
 
 void SeasonRecord::add_result(int winner, int loser, int winner_runs, int loser_runs) {
+  settle_windows();
   ++at(kWins, winner);
   ++at(kLosses, loser);
   at(kRunsFor, winner) += winner_runs;
@@ -98,6 +120,7 @@ void SeasonRecord::add_result(int winner, int loser, int winner_runs, int loser_
 }
 
 void SeasonRecord::set_window(int k, int t, std::span<const std::int32_t> oldest_first) {
+  settle_windows();
   const auto n = static_cast<std::size_t>(n_);
   const auto games = static_cast<std::size_t>(windows_[k].games);
   std::int32_t* base = data_.data() + win_base_[k];
@@ -116,6 +139,7 @@ void SeasonRecord::set_window(int k, int t, std::span<const std::int32_t> oldest
 }
 
 std::vector<std::int32_t> SeasonRecord::window_results(int k, int t) const {
+  settle_windows();
   const auto n = static_cast<std::size_t>(n_);
   const auto games = static_cast<std::size_t>(windows_[k].games);
   const std::int32_t* base = data_.data() + win_base_[k];

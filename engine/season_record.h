@@ -36,6 +36,11 @@ std::vector<LastGamesWindow> last_games_windows(const config::Tiebreakers& tiebr
 class SeasonRecord {
  public:
   SeasonRecord() = default;
+  // Copies settle deferred windows first (see defer_windows).
+  SeasonRecord(const SeasonRecord& other);
+  SeasonRecord& operator=(const SeasonRecord& other);
+  SeasonRecord(SeasonRecord&&) = default;
+  SeasonRecord& operator=(SeasonRecord&&) = default;
 
   // An empty record for teams whose division and conference indexes are given (any integers;
   // two teams share a division when the numbers are equal), with the given windows (games >= 1).
@@ -78,6 +83,17 @@ class SeasonRecord {
   // Team t's results in window k (1 won, 0 lost), oldest first.
   std::vector<std::int32_t> window_results(int k, int t) const;
 
+  // Defers the last-games windows: the first read of a window (or a copy, add_result or
+  // set_window) calls fill(context, *this) once, which must bring every window up to date with
+  // set_window. The engine uses it because the windows are read only by ties that get that far
+  // down the tiebreak rules, which few simulated seasons have. The context must outlive the
+  // deferral; a copy of the record is made after filling, so it never shares the context.
+  using WindowFill = void (*)(void* context, SeasonRecord& record);
+  void defer_windows(void* context, WindowFill fill) {
+    fill_context_ = context;
+    fill_ = fill;
+  }
+
   int wins(int t) const { return at(kWins, t); }
   int losses(int t) const { return at(kLosses, t); }
   int games(int t) const { return wins(t) + losses(t); }
@@ -99,8 +115,14 @@ class SeasonRecord {
   int find_window(const LastGamesWindow& w) const;
   // Wins and losses of team t over its last window(k).games games in window(k).scope (fewer when
   // it has not played that many).
-  int last_wins(int k, int t) const { return data_[win_base_[k] + t]; }
-  int last_losses(int k, int t) const { return data_[win_base_[k] + n_ + t] - last_wins(k, t); }
+  int last_wins(int k, int t) const {
+    settle_windows();
+    return data_[win_base_[k] + t];
+  }
+  int last_losses(int k, int t) const {
+    settle_windows();
+    return data_[win_base_[k] + n_ + t] - data_[win_base_[k] + t];
+  }
 
  private:
   // Blocks of n int32 values in data_, in this order; then the n*n head-to-head matrix; then per
@@ -121,12 +143,22 @@ class SeasonRecord {
   int at(Block b, int t) const { return data_[static_cast<std::size_t>(b) * n_ + t]; }
   int& at(Block b, int t) { return data_[static_cast<std::size_t>(b) * n_ + t]; }
   void push_window(int k, int team, int won);
+  // Runs a deferred window fill, if any (const: the windows are a cache of the games added).
+  void settle_windows() const {
+    if (fill_ != nullptr) [[unlikely]] {
+      const WindowFill fill = fill_;
+      fill_ = nullptr;
+      fill(fill_context_, const_cast<SeasonRecord&>(*this));
+    }
+  }
 
   int n_ = 0;
   std::size_t h2h_ = 0;  // offset of the head-to-head matrix
   std::vector<LastGamesWindow> windows_;
   std::vector<std::size_t> win_base_;  // offset of each window's blocks
   std::vector<std::int32_t> data_;
+  mutable void* fill_context_ = nullptr;
+  mutable WindowFill fill_ = nullptr;
 };
 
 // An empty record for the season's teams, with the windows its tiebreakers need.

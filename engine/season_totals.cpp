@@ -104,7 +104,7 @@ SeasonTotals::SeasonTotals(const TotalsLayout& layout)
   std::size_t longest = 0;
   for (const auto& w : layout.windows_)
     longest = std::max(longest, w.played.size() + w.games.size());
-  window_.reserve(longest);
+  window_.resize(longest);
 }
 
 void SeasonTotals::clear() { std::fill(word_.begin(), word_.end(), 0); }
@@ -140,11 +140,17 @@ void SeasonTotals::add_to(SeasonRecord& record) {
     r.runs_against = static_cast<int>(team_runs_[t] & 0xffffffffu);
     record.add_team_results(static_cast<int>(t), r);
   }
-  for (const TotalsLayout::WindowTeam& w : l.windows_) {
-    window_.assign(w.played.begin(), w.played.end());
-    for (std::uint32_t code : w.games)
-      window_.push_back(home_won_[code >> 1] == (code & 1u) ? 1 : 0);
-    record.set_window(w.window, w.team, window_);
+  // The windows are filled only if a tiebreak reads one (SeasonRecord::defer_windows).
+  if (!l.windows_.empty()) record.defer_windows(this, &SeasonTotals::fill_windows);
+}
+
+void SeasonTotals::fill_windows(void* self, SeasonRecord& record) {
+  auto& totals = *static_cast<SeasonTotals*>(self);
+  for (const TotalsLayout::WindowTeam& w : totals.layout_->windows_) {
+    std::int32_t* out = totals.window_.data();
+    for (std::int32_t r : w.played) *out++ = r;
+    for (std::uint32_t code : w.games) *out++ = totals.home_won_[code >> 1] == (code & 1u) ? 1 : 0;
+    record.set_window(w.window, w.team, std::span<const std::int32_t>(totals.window_.data(), out));
   }
 }
 

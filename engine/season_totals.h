@@ -97,10 +97,14 @@ class SeasonTotals {
     sink().add(g, group, home_won, home_runs, away_runs);
   }
 
-  // Adds the season's games to `record`, which holds the layout's base record.
+  // Adds the season's games to `record`, which holds the layout's base record. The last-games
+  // windows are deferred (SeasonRecord::defer_windows): this object must stay unchanged until
+  // the record is done with or copied.
   void add_to(SeasonRecord& record);
 
  private:
+  static void fill_windows(void* self, SeasonRecord& record);
+
   const TotalsLayout* layout_ = nullptr;
   std::vector<std::uint64_t> word_;     // per group
   std::vector<std::uint8_t> home_won_;  // per game
