@@ -88,6 +88,15 @@ class SeasonTotals {
                      static_cast<std::uint64_t>(home_runs) << 26 | away_runs;
       home_won[g] = static_cast<std::uint8_t>(home_won_g);
     }
+
+    // Game g, added earlier as a home loss at a tied score, was settled in extra innings: adds
+    // the home win, if it was one, and the extra runs (the total per side at most MAX_RUNS).
+    void add_extra(std::size_t g, std::uint32_t group, std::uint32_t home_won_g,
+                   std::uint32_t extra_home_runs, std::uint32_t extra_away_runs) const {
+      word[group] += static_cast<std::uint64_t>(home_won_g) << 52 |
+                     static_cast<std::uint64_t>(extra_home_runs) << 26 | extra_away_runs;
+      home_won[g] = static_cast<std::uint8_t>(home_won_g);
+    }
   };
   Sink sink() { return Sink{word_.data(), home_won_.data()}; }
 

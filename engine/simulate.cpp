@@ -34,9 +34,11 @@ struct MatchupParams {
 
 // Per-thread working space and tallies. Holds no random state.
 struct Worker {
-  std::vector<double> off, def, odds;  // per slot: league mean x offence, defence, log5 odds
-  std::vector<double> z, x;            // normal draws and correlated log deviations
-  std::vector<MatchupParams> matchup;  // per matchup of the plan
+  std::vector<double> off, def, odds;   // per slot: league mean x offence, defence, log5 odds
+  std::vector<double> z, x;             // normal draws and correlated log deviations
+  std::vector<MatchupParams> matchup;   // per matchup of the plan
+  std::vector<std::uint32_t> ties;      // remaining games tied after regulation (this season)
+  std::vector<std::uint16_t> tie_runs;  // their tied score
   SeasonTotals totals;
   SeasonRecord record;
   LeagueRanking ranking;
@@ -55,6 +57,8 @@ struct Worker {
         z(2 * static_cast<std::size_t>(plan.teams)),
         x(2 * static_cast<std::size_t>(plan.teams)),
         matchup(plan.matchups.size()),
+        ties(plan.remaining_games()),
+        tie_runs(plan.remaining_games()),
         totals(plan.totals),
         record(plan.played),
         ranking(plan.seeder.make_ranking()),
@@ -227,7 +231,12 @@ class SeasonRunner {
     const ExtraInnings& extra_innings = games_.extra_innings();
     w.totals.clear();
     const SeasonTotals::Sink totals = w.totals.sink();
-    std::uint64_t extra = 0, drawn = 0;
+    // Regulation first, without a branch: a tied game is tallied as a home loss at the tied score
+    // and its index noted; the ties then go to extra innings in a second pass (drawing on, in
+    // order, from the same stream), which adds the home win, if any, and the extra runs.
+    std::uint32_t* ties = w.ties.data();
+    std::uint16_t* tie_runs = w.tie_runs.data();
+    std::size_t tied = 0;
     for (std::size_t g = 0; g < count; ++g) {
       const std::uint32_t m = game_matchup[g];
       const MatchupParams& p = params[m];
@@ -244,27 +253,29 @@ class SeasonRunner {
           h = counts.score(rng(), p.home);
           a = counts.score(rng(), p.away);
         }
-        if (h == a) [[unlikely]] {
-          GameResult r;
-          r.home_runs = h;
-          r.away_runs = a;
-          Rng spill = rng;  // the rare path works on a copy in memory
-          extra_innings.play_chances(spill, p.home_chance, p.away_chance, r);
-          rng = spill;
-          ++extra;
-          drawn += r.drawn;
-          h = r.home_runs;
-          a = r.away_runs;
-          home_won = r.home_won;
-        } else {
-          home_won = h > a;
-        }
+        home_won = h > a;
         hr = static_cast<std::uint32_t>(std::min<int>(h, TotalsLayout::MAX_RUNS));
         ar = static_cast<std::uint32_t>(std::min<int>(a, TotalsLayout::MAX_RUNS));
+        ties[tied] = static_cast<std::uint32_t>(g);
+        tie_runs[tied] = static_cast<std::uint16_t>(hr);
+        tied += h == a;
       }
       totals.add(g, m, home_won, hr, ar);
     }
     stream = rng;
+    std::uint64_t drawn = 0;
+    for (std::size_t i = 0; i < tied; ++i) {
+      const std::uint32_t g = ties[i];
+      const std::uint32_t m = game_matchup[g];
+      const MatchupParams& p = params[m];
+      GameResult r;
+      extra_innings.play_chances(stream, p.home_chance, p.away_chance, r);
+      drawn += r.drawn;
+      const std::uint32_t room = TotalsLayout::MAX_RUNS - tie_runs[i];
+      totals.add_extra(g, m, r.home_won, std::min<std::uint32_t>(r.home_runs, room),
+                       std::min<std::uint32_t>(r.away_runs, room));
+    }
+    const std::uint64_t extra = tied;
     w.totals.add_to(w.record);
     w.tally.add_games(count, extra, drawn);
   }
