@@ -66,10 +66,18 @@ WeibullTable::WeibullTable(double shape) : shape_(shape), inv_shape_(0), inv_gam
     cells_[2 * i + 1] = static_cast<float>(slope);
   }
   const auto n = static_cast<std::size_t>(MAX_TABLE_MEAN / MEAN_STEP) + 1;
-  correction_.resize(n);
+  // The correction (exact scale - continuous scale) at the grid means i * MEAN_STEP; within
+  // cell i the interpolated scale is intercept + slope * mean.
+  std::vector<double> correction(n);
   for (std::size_t i = 0; i < n; ++i) {
     const double mean = static_cast<double>(i) * MEAN_STEP;
-    correction_[i] = solve_scale(mean, shape, inv_gamma_) - (mean + 0.5) * inv_gamma_;
+    correction[i] = solve_scale(mean, shape, inv_gamma_) - (mean + 0.5) * inv_gamma_;
+  }
+  lines_.resize(2 * (n - 1));
+  for (std::size_t i = 0; i + 1 < n; ++i) {
+    const double d = correction[i + 1] - correction[i];
+    lines_[2 * i] = 0.5 * inv_gamma_ + correction[i] - static_cast<double>(i) * d;
+    lines_[2 * i + 1] = inv_gamma_ + d * (1.0 / MEAN_STEP);
   }
   last_index_ = static_cast<double>(n - 1);
 }

@@ -56,15 +56,38 @@ class WeibullTable {
   }
   double exact_quantile(std::uint32_t bits) const;
 
-  // Scale whose discretised mean is `mean` (mean >= 0).
+  // Scale whose discretised mean is `mean` (mean >= 0): the continuous scale plus the tabulated
+  // correction, interpolated linearly, which within a cell of the grid is a line in the mean,
+  // stored as intercept and slope.
   double scale_for_mean(double mean) const {
     const double x = mean * (1.0 / MEAN_STEP);
-    const double continuous = (mean + 0.5) * inv_gamma_;
-    if (x >= last_index_) [[unlikely]]
-      return continuous;
-    const auto i = static_cast<std::size_t>(x);
-    const double f = x - static_cast<double>(i);
-    return continuous + correction_[i] + f * (correction_[i + 1] - correction_[i]);
+    if (!(x < last_index_)) [[unlikely]]
+      return (mean + 0.5) * inv_gamma_;
+    const double* line = lines_.data() + 2 * static_cast<std::size_t>(x);
+    return line[0] + line[1] * mean;
+  }
+
+  // scale_for_mean of mean[0] and mean[1] into scale[0] and scale[1], side by side in one SSE2
+  // register (the same values).
+  void scale_pair(const double* mean, double* scale) const {
+#if defined(__SSE2__)
+    const __m128d m = _mm_loadu_pd(mean);
+    const __m128d x = _mm_mul_pd(m, _mm_set1_pd(1.0 / MEAN_STEP));
+    if (_mm_movemask_pd(_mm_cmplt_pd(x, _mm_set1_pd(last_index_))) != 3) [[unlikely]] {
+      scale[0] = scale_for_mean(mean[0]);
+      scale[1] = scale_for_mean(mean[1]);
+      return;
+    }
+    const __m128i i = _mm_cvttpd_epi32(x);
+    const __m128d l0 = _mm_loadu_pd(lines_.data() + 2 * _mm_cvtsi128_si32(i));
+    const __m128d l1 = _mm_loadu_pd(lines_.data() + 2 * _mm_cvtsi128_si32(_mm_shuffle_epi32(i, 1)));
+    const __m128d intercept = _mm_unpacklo_pd(l0, l1);
+    const __m128d slope = _mm_unpackhi_pd(l0, l1);
+    _mm_storeu_pd(scale, _mm_add_pd(intercept, _mm_mul_pd(slope, m)));
+#else
+    scale[0] = scale_for_mean(mean[0]);
+    scale[1] = scale_for_mean(mean[1]);
+#endif
   }
 
   // One score of a side with this scale.
@@ -105,10 +128,10 @@ class WeibullTable {
  private:
   double shape_ = 0;
   double inv_shape_ = 0;
-  double inv_gamma_ = 0;            // 1 / Gamma(1 + 1/shape)
-  std::vector<float> cells_;        // per cell i < 4096: Q at (i 2^20 + 1/2) / 2^32, then slope
-  std::vector<double> correction_;  // at mean = i * MEAN_STEP: exact scale - continuous scale
-  double last_index_ = 0;           // correction_.size() - 1
+  double inv_gamma_ = 0;       // 1 / Gamma(1 + 1/shape)
+  std::vector<float> cells_;   // per cell i < 4096: Q at (i 2^20 + 1/2) / 2^32, then slope
+  std::vector<double> lines_;  // per cell of the mean grid: intercept, slope
+  double last_index_ = 0;      // cells in the mean grid
 };
 
 enum class CountFamily { kNegativeBinomial, kPoisson };

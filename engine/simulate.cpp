@@ -201,17 +201,17 @@ class SeasonRunner {
         const double oh = odds[m.home_slot] * home_odds_factor_;
         p.home = oh / (oh + odds[m.away_slot]);
       } else {
-        const double hm = off[m.home_slot] * def[m.away_slot] * static_cast<double>(m.home_factor);
-        const double am = off[m.away_slot] * def[m.home_slot] * static_cast<double>(m.away_factor);
+        const double mean[2] = {
+            off[m.home_slot] * def[m.away_slot] * static_cast<double>(m.home_factor),
+            off[m.away_slot] * def[m.home_slot] * static_cast<double>(m.away_factor)};
         if constexpr (M == GameModel::kWeibull) {
-          p.home = games_.weibull().scale_for_mean(hm);
-          p.away = games_.weibull().scale_for_mean(am);
+          games_.weibull().scale_pair(mean, &p.home);
         } else {
-          p.home = hm;
-          p.away = am;
+          p.home = mean[0];
+          p.away = mean[1];
         }
-        p.home_chance = extra.scoring_chance(hm);
-        p.away_chance = extra.scoring_chance(am);
+        p.home_chance = extra.scoring_chance(mean[0]);
+        p.away_chance = extra.scoring_chance(mean[1]);
       }
     }
   }

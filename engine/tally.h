@@ -32,12 +32,14 @@ class Tally {
     losses_[t] += static_cast<std::uint64_t>(losses);
     if (seed > max_seed_) seed = max_seed_;
     ++seed_[t * static_cast<std::size_t>(max_seed_ + 1) + static_cast<std::size_t>(seed)];
-    if (division) ++division_[t];
-    if (seed > 0) ++postseason_[t];
-    if (bye) ++bye_[t];
-    for (int r = 0; r <= last_round_reached && r < rounds_; ++r)
-      ++reached_[t * static_cast<std::size_t>(rounds_) + static_cast<std::size_t>(r)];
-    if (title) ++title_[t];
+    // Added without branches: which teams win what varies from season to season, so branches
+    // here would mispredict often.
+    division_[t] += division;
+    postseason_[t] += seed > 0;
+    bye_[t] += bye;
+    title_[t] += title;
+    std::uint64_t* reached = reached_.data() + t * static_cast<std::size_t>(rounds_);
+    for (int r = 0; r < rounds_; ++r) reached[r] += r <= last_round_reached;
   }
   void add_season() { ++seasons_; }
   void add_games(std::uint64_t games, std::uint64_t extra, std::uint64_t drawn) {

@@ -7,10 +7,10 @@
 //   - the full engine (strength draws, every remaining game with extra innings, standings,
 //     tiebreakers, seeding, the postseason bracket, tallies) on 1 and on 2 threads: seasons per
 //     second and regular-season games per second, and the 1 -> 2 thread speed-up;
-//   - a floor loop over the same seasons and games: the same per-season random stream set-up
-//     (engine::SeasonStreams, the games stream), two draws per game, the winner tallied into a
-//     per-thread per-team counter, in the same parallel batches; its seasons and games per
-//     second, and the ratio engine / floor;
+//   - a floor loop over the same seasons and games: a PCG32 stream per season keyed like the
+//     engine's games stream, two 32-bit draws per game, the winner tallied into a per-thread
+//     per-team counter, in the same parallel batches; its seasons and games per second, and the
+//     ratio engine / floor;
 //   - peak memory (getrusage ru_maxrss) after the N-season runs and, with --full, after a
 //     1,000,000-season run on 2 threads whose wall time is set against the 10 s target.
 // Figures depend on the machine and its load: the load average is printed alongside.
@@ -37,7 +37,6 @@
 #include "engine/plan.h"
 #include "engine/rng.h"
 #include "engine/simulate.h"
-#include "engine/streams.h"
 #include "models/ratings.h"
 
 namespace {
@@ -115,20 +114,22 @@ Timing time_floor(const engine::Plan& plan, std::uint64_t seasons, std::uint64_t
   const auto start = Clock::now();
   for (std::uint64_t done = 0; done < seasons;) {
     const std::uint64_t end = std::min(seasons, done + BATCH);
-    tbb::parallel_for(tbb::blocked_range<std::uint64_t>(done, end, GRAIN),
-                      [&](const tbb::blocked_range<std::uint64_t>& range) {
-                        std::vector<std::uint64_t>& wins = tallies.local();
-                        engine::SeasonStreams streams(seed, range.begin());
-                        for (std::uint64_t s = range.begin(); s < range.end(); ++s) {
-                          engine::Rng rng = streams.stream(engine::Purpose::kGames);
-                          for (std::size_t g = 0; g < n_games; ++g) {
-                            const std::uint64_t a = rng();
-                            const std::uint64_t b = rng();
-                            ++wins[a > b ? home[g] : away[g]];
-                          }
-                          streams.next();
-                        }
-                      });
+    tbb::parallel_for(
+        tbb::blocked_range<std::uint64_t>(done, end, GRAIN),
+        [&](const tbb::blocked_range<std::uint64_t>& range) {
+          std::vector<std::uint64_t>& wins = tallies.local();
+          for (std::uint64_t s = range.begin(); s < range.end(); ++s) {
+            const pcg_extras::pcg128_t key =
+                engine::stream_state(seed, s * engine::kPurposeCount +
+                                               static_cast<std::uint64_t>(engine::Purpose::kGames));
+            pcg32 rng(static_cast<std::uint64_t>(key), static_cast<std::uint64_t>(key >> 64));
+            for (std::size_t g = 0; g < n_games; ++g) {
+              const std::uint32_t a = rng();
+              const std::uint32_t b = rng();
+              ++wins[a > b ? home[g] : away[g]];
+            }
+          }
+        });
     done = end;
   }
   Timing t;
