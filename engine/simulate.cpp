@@ -34,11 +34,10 @@ struct MatchupParams {
 
 // Per-thread working space and tallies. Holds no random state.
 struct Worker {
-  std::vector<double> off, def, odds;   // per slot: league mean x offence, defence, log5 odds
-  std::vector<double> z, x;             // normal draws and correlated log deviations
-  std::vector<MatchupParams> matchup;   // per matchup of the plan
-  std::vector<std::uint32_t> ties;      // remaining games tied after regulation (this season)
-  std::vector<std::uint16_t> tie_runs;  // their tied score
+  std::vector<double> off, def, odds;  // per slot: league mean x offence, defence, log5 odds
+  std::vector<double> z, x;            // normal draws and correlated log deviations
+  std::vector<MatchupParams> matchup;  // per matchup of the plan
+  std::vector<std::uint32_t> ties;     // remaining games tied after regulation (this season)
   SeasonTotals totals;
   SeasonRecord record;
   LeagueRanking ranking;
@@ -58,7 +57,6 @@ struct Worker {
         x(2 * static_cast<std::size_t>(plan.teams)),
         matchup(plan.matchups.size()),
         ties(plan.remaining_games()),
-        tie_runs(plan.remaining_games()),
         totals(plan.totals),
         record(plan.played),
         ranking(plan.seeder.make_ranking()),
@@ -81,6 +79,12 @@ class SeasonRunner {
   SeasonRunner(const Plan& plan, bool postseason)
       : plan_(plan), games_(plan), postseason_(postseason && plan.postseason) {
     home_odds_factor_ = std::pow(plan.home_edge, plan.shape);
+    // A Weibull score is scale x Q(u) with Q(u) at most its value at the largest u, so capping
+    // the scale keeps every regulation score at most half of TotalsLayout::MAX_RUNS (the extra
+    // innings are capped at the other half): the loop needs no clamp. The cap is thousands of
+    // runs per game, far outside any real league.
+    if (plan.model == GameModel::kWeibull)
+      scale_cap_ = (TotalsLayout::MAX_RUNS / 2) / games_.weibull().exact_quantile(0xffffffffu);
   }
 
   void run(SeasonStreams& streams, Worker& w) const {
@@ -206,6 +210,8 @@ class SeasonRunner {
             off[m.away_slot] * def[m.home_slot] * static_cast<double>(m.away_factor)};
         if constexpr (M == GameModel::kWeibull) {
           games_.weibull().scale_pair(mean, &p.home);
+          p.home = std::min(p.home, scale_cap_);
+          p.away = std::min(p.away, scale_cap_);
         } else {
           p.home = mean[0];
           p.away = mean[1];
@@ -235,7 +241,6 @@ class SeasonRunner {
     // and its index noted; the ties then go to extra innings in a second pass (drawing on, in
     // order, from the same stream), which adds the home win, if any, and the extra runs.
     std::uint32_t* ties = w.ties.data();
-    std::uint16_t* tie_runs = w.tie_runs.data();
     std::size_t tied = 0;
     for (std::size_t g = 0; g < count; ++g) {
       const std::uint32_t m = game_matchup[g];
@@ -254,10 +259,13 @@ class SeasonRunner {
           a = counts.score(rng(), p.away);
         }
         home_won = h > a;
-        hr = static_cast<std::uint32_t>(std::min<int>(h, TotalsLayout::MAX_RUNS));
-        ar = static_cast<std::uint32_t>(std::min<int>(a, TotalsLayout::MAX_RUNS));
+        if constexpr (M != GameModel::kWeibull) {  // Weibull scores are bounded by scale_cap_
+          h = std::min<int>(h, TotalsLayout::MAX_RUNS / 2);
+          a = std::min<int>(a, TotalsLayout::MAX_RUNS / 2);
+        }
+        hr = static_cast<std::uint32_t>(h);
+        ar = static_cast<std::uint32_t>(a);
         ties[tied] = static_cast<std::uint32_t>(g);
-        tie_runs[tied] = static_cast<std::uint16_t>(hr);
         tied += h == a;
       }
       totals.add(g, m, home_won, hr, ar);
@@ -271,7 +279,7 @@ class SeasonRunner {
       GameResult r;
       extra_innings.play_chances(stream, p.home_chance, p.away_chance, r);
       drawn += r.drawn;
-      const std::uint32_t room = TotalsLayout::MAX_RUNS - tie_runs[i];
+      constexpr std::uint32_t room = TotalsLayout::MAX_RUNS - TotalsLayout::MAX_RUNS / 2;
       totals.add_extra(g, m, r.home_won, std::min<std::uint32_t>(r.home_runs, room),
                        std::min<std::uint32_t>(r.away_runs, room));
     }
@@ -356,6 +364,7 @@ class SeasonRunner {
   GameEngine games_;
   bool postseason_;
   double home_odds_factor_ = 1.0;
+  double scale_cap_ = 0;
 };
 
 }  // namespace
