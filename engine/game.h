@@ -92,6 +92,7 @@ class ExtraInnings {
                            bool cap_innings) const;
 
   int regulation_innings() const { return regulation_; }
+  int max_innings() const { return max_innings_; }  // 0: no cap
 
  private:
   int regulation_ = 9;

@@ -38,6 +38,8 @@ struct Worker {
   std::vector<double> z, x;            // normal draws and correlated log deviations
   std::vector<MatchupParams> matchup;  // per matchup of the plan
   std::vector<std::uint32_t> ties;     // remaining games tied after regulation (this season)
+  std::vector<std::uint32_t> tie_open, tie_home_runs, tie_away_runs;  // per tie: extra innings
+  std::vector<std::uint8_t> tie_home_won;
   SeasonTotals totals;
   SeasonRecord record;
   LeagueRanking ranking;
@@ -57,6 +59,10 @@ struct Worker {
         x(2 * static_cast<std::size_t>(plan.teams)),
         matchup(plan.matchups.size()),
         ties(plan.remaining_games()),
+        tie_open(plan.remaining_games()),
+        tie_home_runs(plan.remaining_games()),
+        tie_away_runs(plan.remaining_games()),
+        tie_home_won(plan.remaining_games()),
         totals(plan.totals),
         record(plan.played),
         ranking(plan.seeder.make_ranking()),
@@ -270,18 +276,51 @@ class SeasonRunner {
       }
       totals.add(g, m, home_won, hr, ar);
     }
-    stream = rng;
+    // Extra innings for all the tied games together, one inning at a time: each pass plays the
+    // next inning of every game still tied (the same law as ExtraInnings::play_chances, one
+    // draw per inning) and keeps the still-tied ones, without a branch per game. A game still
+    // tied after the league's innings cap is settled by a fair draw.
+    std::uint32_t* open = w.tie_open.data();
+    std::uint32_t* extra_home = w.tie_home_runs.data();
+    std::uint32_t* extra_away = w.tie_away_runs.data();
+    std::uint8_t* home_wins = w.tie_home_won.data();
+    for (std::size_t i = 0; i < tied; ++i) {
+      open[i] = static_cast<std::uint32_t>(i);
+      extra_home[i] = extra_away[i] = 0;
+    }
+    std::size_t still_open = tied;
     std::uint64_t drawn = 0;
+    const int cap = extra_innings.max_innings();
+    for (int inning = extra_innings.regulation_innings() + 1; still_open > 0; ++inning) {
+      if (cap > 0 && inning > cap) {
+        for (std::size_t k = 0; k < still_open; ++k)
+          home_wins[open[k]] = static_cast<std::uint8_t>(rng() >> 63);
+        drawn = still_open;
+        break;
+      }
+      std::size_t next = 0;
+      for (std::size_t k = 0; k < still_open; ++k) {
+        const std::uint32_t i = open[k];
+        const MatchupParams& p = params[game_matchup[ties[i]]];
+        const std::uint64_t bits = rng();
+        const int away = ExtraInnings::half_inning_runs(static_cast<std::uint32_t>(bits >> 32),
+                                                        p.away_chance, 1 << 30);
+        const int home = ExtraInnings::half_inning_runs(static_cast<std::uint32_t>(bits),
+                                                        p.home_chance, away + 1);
+        extra_home[i] += static_cast<std::uint32_t>(home);
+        extra_away[i] += static_cast<std::uint32_t>(away);
+        home_wins[i] = home > away;
+        open[next] = i;
+        next += home == away;
+      }
+      still_open = next;
+    }
+    stream = rng;
+    constexpr std::uint32_t room = TotalsLayout::MAX_RUNS - TotalsLayout::MAX_RUNS / 2;
     for (std::size_t i = 0; i < tied; ++i) {
       const std::uint32_t g = ties[i];
-      const std::uint32_t m = game_matchup[g];
-      const MatchupParams& p = params[m];
-      GameResult r;
-      extra_innings.play_chances(stream, p.home_chance, p.away_chance, r);
-      drawn += r.drawn;
-      constexpr std::uint32_t room = TotalsLayout::MAX_RUNS - TotalsLayout::MAX_RUNS / 2;
-      totals.add_extra(g, m, r.home_won, std::min<std::uint32_t>(r.home_runs, room),
-                       std::min<std::uint32_t>(r.away_runs, room));
+      totals.add_extra(g, game_matchup[g], home_wins[i], std::min(extra_home[i], room),
+                       std::min(extra_away[i], room));
     }
     const std::uint64_t extra = tied;
     w.totals.add_to(w.record);
