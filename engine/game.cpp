@@ -11,19 +11,17 @@ ExtraInnings::ExtraInnings(int regulation_innings, const config::ExtraInningsRul
 void ExtraInnings::play_chances(Rng& rng, double home_chance, double away_chance, GameResult& r,
                                 bool cap_innings) const {
   r.extra = true;
-  for (int inning = regulation_ + 1;; ++inning) {
-    if (cap_innings && max_innings_ > 0 && inning > max_innings_) {
+  for (int number = regulation_ + 1;; ++number) {
+    if (cap_innings && max_innings_ > 0 && number > max_innings_) {
       r.drawn = true;
       r.home_won = (rng() >> 63) != 0;
       return;
     }
-    const std::uint64_t bits = rng();
-    const int away = half_inning_runs(static_cast<std::uint32_t>(bits >> 32), away_chance, 1 << 30);
-    const int home = half_inning_runs(static_cast<std::uint32_t>(bits), home_chance, away + 1);
-    r.away_runs += away;
-    r.home_runs += home;
-    if (home != away) {
-      r.home_won = home > away;
+    const Inning x = inning(rng(), home_chance, away_chance);
+    r.away_runs += x.away;
+    r.home_runs += x.home;
+    if (x.home != x.away) {
+      r.home_won = x.home > x.away;
       return;
     }
   }

@@ -70,6 +70,17 @@ class ExtraInnings {
     return runs < stop ? runs : stop;
   }
 
+  // One extra inning from 64 random bits: the visitors' half from the high 32, the home half
+  // from the low 32 (stopping once the home side leads).
+  struct Inning {
+    int home, away;
+  };
+  static Inning inning(std::uint64_t bits, double home_chance, double away_chance) {
+    const int away = half_inning_runs(static_cast<std::uint32_t>(bits >> 32), away_chance, 1 << 30);
+    const int home = half_inning_runs(static_cast<std::uint32_t>(bits), home_chance, away + 1);
+    return {home, away};
+  }
+
   // The same from the rng (its high 32 bits).
   static int half_inning(Rng& rng, double s, int stop) {
     return half_inning_runs(static_cast<std::uint32_t>(rng() >> 32), s, stop);

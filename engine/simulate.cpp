@@ -277,8 +277,8 @@ class SeasonRunner {
       totals.add(g, m, home_won, hr, ar);
     }
     // Extra innings for all the tied games together, one inning at a time: each pass plays the
-    // next inning of every game still tied (the same law as ExtraInnings::play_chances, one
-    // draw per inning) and keeps the still-tied ones, without a branch per game. A game still
+    // next inning of every game still tied (ExtraInnings::inning, as play_chances does game by
+    // game) and keeps the still-tied ones, without a branch per game. A game still
     // tied after the league's innings cap is settled by a fair draw.
     std::uint32_t* open = w.tie_open.data();
     std::uint32_t* extra_home = w.tie_home_runs.data();
@@ -302,16 +302,12 @@ class SeasonRunner {
       for (std::size_t k = 0; k < still_open; ++k) {
         const std::uint32_t i = open[k];
         const MatchupParams& p = params[game_matchup[ties[i]]];
-        const std::uint64_t bits = rng();
-        const int away = ExtraInnings::half_inning_runs(static_cast<std::uint32_t>(bits >> 32),
-                                                        p.away_chance, 1 << 30);
-        const int home = ExtraInnings::half_inning_runs(static_cast<std::uint32_t>(bits),
-                                                        p.home_chance, away + 1);
-        extra_home[i] += static_cast<std::uint32_t>(home);
-        extra_away[i] += static_cast<std::uint32_t>(away);
-        home_wins[i] = home > away;
+        const ExtraInnings::Inning x = ExtraInnings::inning(rng(), p.home_chance, p.away_chance);
+        extra_home[i] += static_cast<std::uint32_t>(x.home);
+        extra_away[i] += static_cast<std::uint32_t>(x.away);
+        home_wins[i] = x.home > x.away;
         open[next] = i;
-        next += home == away;
+        next += x.home == x.away;
       }
       still_open = next;
     }
