@@ -46,7 +46,7 @@ using Clock = std::chrono::steady_clock;
 
 constexpr std::uint64_t FULL_SEASONS = 1'000'000;
 constexpr double FULL_TARGET_S = 10.0;
-constexpr std::uint64_t GRAIN = 128;  // seasons per parallel task, as in the engine
+constexpr std::uint64_t GRAIN = 32;  // seasons per parallel task, as in the engine
 constexpr std::uint64_t BATCH = 10000;
 
 double seconds_since(Clock::time_point start) {
@@ -129,7 +129,8 @@ Timing time_floor(const engine::Plan& plan, std::uint64_t seasons, std::uint64_t
               ++wins[a > b ? home[g] : away[g]];
             }
           }
-        });
+        },
+        tbb::simple_partitioner());
     done = end;
   }
   Timing t;
