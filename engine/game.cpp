@@ -27,15 +27,6 @@ void ExtraInnings::play_chances(Rng& rng, double home_chance, double away_chance
   }
 }
 
-GameResult ExtraInnings::play_from_tie(Rng& rng, double home_mean, double away_mean, int runs,
-                                       bool cap_innings) const {
-  GameResult r;
-  r.home_runs = runs;
-  r.away_runs = runs;
-  play(rng, home_mean, away_mean, r, cap_innings);
-  return r;
-}
-
 namespace {
 CountFamily count_family(GameModel m) {
   return m == GameModel::kPoisson ? CountFamily::kPoisson : CountFamily::kNegativeBinomial;
@@ -44,24 +35,13 @@ CountFamily count_family(GameModel m) {
 
 GameEngine::GameEngine(const Plan& plan)
     : model_(plan.model), extra_(plan.regulation_innings, plan.extra_innings) {
-  if (model_ == GameModel::kWeibull) weibull_ = WeibullTable(plan.shape);
+  if (model_ == GameModel::kWeibull) {
+    weibull_ = WeibullTable(plan.shape);
+    // The largest Q(u) is at the largest u: scale x Q stays within max_regulation_runs().
+    scale_cap_ = max_regulation_runs() / weibull_.exact_quantile(0xffffffffu);
+  }
   if (model_ == GameModel::kNegativeBinomial || model_ == GameModel::kPoisson)
     counts_ = CountTable(count_family(model_), plan.nb_size);
-}
-
-GameResult GameEngine::play(Rng& rng, double home_mean, double away_mean, double home_odds,
-                            double away_odds, bool cap) const {
-  switch (model_) {
-    case GameModel::kWeibull:
-      return play_scores<GameModel::kWeibull>(rng, home_mean, away_mean, cap);
-    case GameModel::kNegativeBinomial:
-      return play_scores<GameModel::kNegativeBinomial>(rng, home_mean, away_mean, cap);
-    case GameModel::kPoisson:
-      return play_scores<GameModel::kPoisson>(rng, home_mean, away_mean, cap);
-    case GameModel::kLog5:
-      break;
-  }
-  return play_log5(rng, home_odds / (home_odds + away_odds));
 }
 
 }  // namespace standfast::engine

@@ -98,10 +98,6 @@ class ExtraInnings {
   void play_chances(Rng& rng, double home_chance, double away_chance, GameResult& r,
                     bool cap_innings = true) const;
 
-  // The same from a regulation tie at `runs` to `runs`, returning the result by value.
-  GameResult play_from_tie(Rng& rng, double home_mean, double away_mean, int runs,
-                           bool cap_innings) const;
-
   int regulation_innings() const { return regulation_; }
   int max_innings() const { return max_innings_; }  // 0: no cap
 
@@ -109,6 +105,15 @@ class ExtraInnings {
   int regulation_ = 9;
   int max_innings_ = 0;
   double per_inning_ = 0;  // (1 - q) / innings, times RUNNER_FACTOR with the runner rule
+};
+
+// One pairing's parameters (home side at its venue against the away side), computed once and
+// used for every game of the pairing: per side the Weibull scale or the count family's mean
+// (log5: `home` is the home side's chance of winning), and each side's chance of scoring in an
+// extra half-inning.
+struct Sides {
+  double home = 0, away = 0;  // adjacent: WeibullTable::score_pair reads both at once
+  double home_chance = 0, away_chance = 0;
 };
 
 // The run's game machinery: the model, its tables and the extra-innings rule.
@@ -122,45 +127,83 @@ class GameEngine {
   const CountTable& counts() const { return counts_; }
   const ExtraInnings& extra_innings() const { return extra_; }
 
-  // A game between sides with these expected runs (score families).
-  template <GameModel M>
-  GameResult play_scores(Rng& rng, double home_mean, double away_mean, bool cap = true) const {
-    int home, away;
-    if constexpr (M == GameModel::kWeibull) {
-      const std::uint64_t bits = rng();
-      home = weibull_.score(static_cast<std::uint32_t>(bits >> 32),
-                            weibull_.scale_for_mean(home_mean));
-      away = weibull_.score(static_cast<std::uint32_t>(bits), weibull_.scale_for_mean(away_mean));
-    } else {
-      home = counts_.score(rng(), home_mean);
-      away = counts_.score(rng(), away_mean);
+  // The parameters of sides with these expected runs (score families) or, for log5, these odds
+  // (p / (1 - p), home edge included). A Weibull scale is capped so that a regulation score is
+  // at most max_regulation_runs() (the cap is thousands of runs per game, far outside any real
+  // league): the season loop then needs no clamp.
+  Sides sides(double home_mean, double away_mean, double home_odds = 1.0,
+              double away_odds = 1.0) const {
+    Sides s;
+    switch (model_) {
+      case GameModel::kWeibull:
+        set_sides<GameModel::kWeibull>(s, home_mean, away_mean, home_odds, away_odds);
+        break;
+      case GameModel::kNegativeBinomial:
+      case GameModel::kPoisson:
+        set_sides<GameModel::kPoisson>(s, home_mean, away_mean, home_odds, away_odds);
+        break;
+      case GameModel::kLog5:
+        set_sides<GameModel::kLog5>(s, home_mean, away_mean, home_odds, away_odds);
+        break;
     }
-    if (home == away) [[unlikely]]
-      return extra_.play_from_tie(rng, home_mean, away_mean, home, cap);
-    GameResult r;  // by value, never by address: stays in registers
-    r.home_runs = home;
-    r.away_runs = away;
-    r.home_won = home > away;
-    return r;
+    return s;
   }
+  // The same into `s`, for a model known at compile time (M must be the engine's model; the
+  // negative binomial and the Poisson share their parameters). Writes in place: the season's
+  // matchup loop calls it for every matchup.
+  template <GameModel M>
+  void set_sides(Sides& s, double home_mean, double away_mean, double home_odds,
+                 double away_odds) const {
+    if constexpr (M == GameModel::kWeibull) {
+      const double mean[2] = {home_mean, away_mean};
+      weibull_.scale_pair(mean, &s.home);
+      s.home = s.home < scale_cap_ ? s.home : scale_cap_;
+      s.away = s.away < scale_cap_ ? s.away : scale_cap_;
+    } else if constexpr (M == GameModel::kLog5) {
+      s.home = home_odds / (home_odds + away_odds);
+    } else {
+      s.home = home_mean;
+      s.away = away_mean;
+    }
+    s.home_chance = extra_.scoring_chance(home_mean);
+    s.away_chance = extra_.scoring_chance(away_mean);
+  }
+  static constexpr int max_regulation_runs() { return 16383; }
 
-  // Log5: the home side wins with probability p_home.
-  static GameResult play_log5(Rng& rng, double p_home) {
+  // One game: both regulation scores, then extra innings from a tie (score families); log5: the
+  // winner only, no runs. `cap`: false plays extra innings to a decision (postseason).
+  GameResult play(Rng& rng, const Sides& s, bool cap = true) const {
     GameResult r;
-    r.home_won = uniform01(rng) < p_home;
+    switch (model_) {
+      case GameModel::kWeibull: {
+        const WeibullTable::Pair score = weibull_.score_pair(rng(), &s.home);
+        r.home_runs = score.home;
+        r.away_runs = score.away;
+        break;
+      }
+      case GameModel::kNegativeBinomial:
+      case GameModel::kPoisson:
+        r.home_runs = counts_.score(rng(), s.home);
+        r.away_runs = counts_.score(rng(), s.away);
+        break;
+      case GameModel::kLog5:
+        r.home_won = uniform01(rng) < s.home;
+        return r;
+    }
+    if (r.home_runs == r.away_runs) [[unlikely]] {
+      extra_.play_chances(rng, s.home_chance, s.away_chance, r, cap);
+      return r;
+    }
+    r.home_won = r.home_runs > r.away_runs;
     return r;
   }
-
-  // Dispatch on the model (postseason and tiebreak games; not the regular-season loop).
-  // home_odds/away_odds are used by log5 only (odds = p / (1 - p), home edge included).
-  GameResult play(Rng& rng, double home_mean, double away_mean, double home_odds, double away_odds,
-                  bool cap = true) const;
 
  private:
   GameModel model_ = GameModel::kWeibull;
   WeibullTable weibull_;
   CountTable counts_;
   ExtraInnings extra_;
+  double scale_cap_ = 0;
 };
 
 }  // namespace standfast::engine

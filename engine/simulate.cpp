@@ -6,6 +6,7 @@
 #include <tbb/parallel_for.h>
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <memory>
 #include <optional>
@@ -27,19 +28,22 @@ namespace {
 // cost (a worker look-up) stays negligible.
 constexpr std::uint64_t GRAIN = 32;
 
-// A matchup's parameters for one season: per side the Weibull scale or the count family's mean
-// (log5: home holds the home side's chance), and the scoring chance of an extra half-inning.
-struct MatchupParams {
-  double home = 0, away = 0;  // adjacent: WeibullTable::score_pair reads both at once
-  double home_chance = 0, away_chance = 0;
-};
+// Regulation scores of at most max_regulation_runs() leave room for the extra innings' runs
+// in a game's tally (at most TotalsLayout::MAX_RUNS per side).
+static_assert(GameEngine::max_regulation_runs() <= TotalsLayout::MAX_RUNS / 2);
 
 // Per-thread working space and tallies. Holds no random state.
 struct Worker {
   std::vector<double> off, def, odds;  // per slot: league mean x offence, defence, log5 odds
   std::vector<double> z, x;            // normal draws and correlated log deviations
-  std::vector<MatchupParams> matchup;  // per matchup of the plan
-  std::vector<std::uint32_t> ties;     // remaining games tied after regulation (this season)
+  std::vector<Sides> matchup;          // per matchup of the plan, for the season's strengths
+  struct PairParams {                  // games outside the schedule (tiebreak games, postseason)
+    int home = -1, away = -1;
+    Sides params;
+  };
+  std::array<PairParams, 2> pair_cache;  // valid for the current season only
+  int pair_next = 0;
+  std::vector<std::uint32_t> ties;  // remaining games tied after regulation (this season)
   std::vector<std::uint32_t> tie_open, tie_home_runs, tie_away_runs;  // per tie: extra innings
   std::vector<std::uint8_t> tie_home_won;
   SeasonTotals totals;
@@ -87,15 +91,10 @@ class SeasonRunner {
   SeasonRunner(const Plan& plan, bool postseason)
       : plan_(plan), games_(plan), postseason_(postseason && plan.postseason) {
     home_odds_factor_ = std::pow(plan.home_edge, plan.shape);
-    // A Weibull score is scale x Q(u) with Q(u) at most its value at the largest u, so capping
-    // the scale keeps every regulation score at most half of TotalsLayout::MAX_RUNS (the extra
-    // innings are capped at the other half): the loop needs no clamp. The cap is thousands of
-    // runs per game, far outside any real league.
-    if (plan.model == GameModel::kWeibull)
-      scale_cap_ = (TotalsLayout::MAX_RUNS / 2) / games_.weibull().exact_quantile(0xffffffffu);
   }
 
   void run(SeasonStreams& streams, Worker& w) const {
+    for (Worker::PairParams& e : w.pair_cache) e.home = -1;  // new strengths, new parameters
     Rng strengths = streams.stream(Purpose::kStrengths);
     draw_strengths(strengths, w);
     w.record = plan_.played;  // same size: copies without allocating
@@ -134,15 +133,25 @@ class SeasonRunner {
 
   // A game outside the regular schedule (extra tiebreak game or postseason) at home's venue,
   // with both teams' end-of-season parameters; played to a decision.
-  int play_one(Rng& rng, const Worker& w, int home, int away) const {
-    const auto hs = plan_.final_slot[static_cast<std::size_t>(home)];
-    const auto as = plan_.final_slot[static_cast<std::size_t>(away)];
-    const double rf = plan_.run_factor[static_cast<std::size_t>(home)];
-    const double hm = w.off[hs] * w.def[as] * rf * plan_.home_edge;
-    const double am = w.off[as] * w.def[hs] * rf;
-    const GameResult r =
-        games_.play(rng, hm, am, w.odds[hs] * home_odds_factor_, w.odds[as], /*cap=*/false);
-    return r.home_won ? home : away;
+  // A series alternates between two venues, so the parameters of the last two (home, away)
+  // pairs of the season are kept (Worker::pair_cache).
+  int play_one(Rng& rng, Worker& w, int home, int away) const {
+    Worker::PairParams* c = nullptr;
+    for (Worker::PairParams& e : w.pair_cache)
+      if (e.home == home && e.away == away) c = &e;
+    if (c == nullptr) {
+      c = &w.pair_cache[w.pair_next];
+      w.pair_next ^= 1;
+      c->home = home;
+      c->away = away;
+      const auto hs = plan_.final_slot[static_cast<std::size_t>(home)];
+      const auto as = plan_.final_slot[static_cast<std::size_t>(away)];
+      const double rf = plan_.run_factor[static_cast<std::size_t>(home)];
+      c->params =
+          games_.sides(w.off[hs] * w.def[as] * rf * plan_.home_edge, w.off[as] * w.def[hs] * rf,
+                       w.odds[hs] * home_odds_factor_, w.odds[as]);
+    }
+    return games_.play(rng, c->params, /*cap=*/false).home_won ? home : away;
   }
 
   void draw_strengths(Rng& rng, Worker& w) const {
@@ -205,28 +214,12 @@ class SeasonRunner {
     const double* off = w.off.data();
     const double* def = w.def.data();
     const double* odds = w.odds.data();
-    const ExtraInnings& extra = games_.extra_innings();
     for (std::size_t i = 0; i < plan_.matchups.size(); ++i) {
       const Matchup& m = plan_.matchups[i];
-      MatchupParams& p = w.matchup[i];
-      if constexpr (M == GameModel::kLog5) {
-        const double oh = odds[m.home_slot] * home_odds_factor_;
-        p.home = oh / (oh + odds[m.away_slot]);
-      } else {
-        const double mean[2] = {
-            off[m.home_slot] * def[m.away_slot] * static_cast<double>(m.home_factor),
-            off[m.away_slot] * def[m.home_slot] * static_cast<double>(m.away_factor)};
-        if constexpr (M == GameModel::kWeibull) {
-          games_.weibull().scale_pair(mean, &p.home);
-          p.home = std::min(p.home, scale_cap_);
-          p.away = std::min(p.away, scale_cap_);
-        } else {
-          p.home = mean[0];
-          p.away = mean[1];
-        }
-        p.home_chance = extra.scoring_chance(mean[0]);
-        p.away_chance = extra.scoring_chance(mean[1]);
-      }
+      games_.set_sides<M>(w.matchup[i],
+                          off[m.home_slot] * def[m.away_slot] * static_cast<double>(m.home_factor),
+                          off[m.away_slot] * def[m.home_slot] * static_cast<double>(m.away_factor),
+                          odds[m.home_slot] * home_odds_factor_, odds[m.away_slot]);
     }
   }
 
@@ -239,7 +232,7 @@ class SeasonRunner {
     Rng rng = stream;
     const std::size_t count = plan_.remaining_games();
     const std::uint32_t* game_matchup = plan_.game_matchup.data();
-    const MatchupParams* params = w.matchup.data();
+    const Sides* params = w.matchup.data();
     const WeibullTable& weibull = games_.weibull();
     const CountTable& counts = games_.counts();
     const ExtraInnings& extra_innings = games_.extra_innings();
@@ -252,7 +245,7 @@ class SeasonRunner {
     std::size_t tied = 0;
     for (std::size_t g = 0; g < count; ++g) {
       const std::uint32_t m = game_matchup[g];
-      const MatchupParams& p = params[m];
+      const Sides& p = params[m];
       std::uint32_t home_won, hr = 0, ar = 0;
       if constexpr (M == GameModel::kLog5) {
         home_won = uniform01(rng) < p.home;
@@ -267,9 +260,9 @@ class SeasonRunner {
           a = counts.score(rng(), p.away);
         }
         home_won = h > a;
-        if constexpr (M != GameModel::kWeibull) {  // Weibull scores are bounded by scale_cap_
-          h = std::min<int>(h, TotalsLayout::MAX_RUNS / 2);
-          a = std::min<int>(a, TotalsLayout::MAX_RUNS / 2);
+        if constexpr (M != GameModel::kWeibull) {  // Weibull scores are bounded by sides()
+          h = std::min(h, GameEngine::max_regulation_runs());
+          a = std::min(a, GameEngine::max_regulation_runs());
         }
         hr = static_cast<std::uint32_t>(h);
         ar = static_cast<std::uint32_t>(a);
@@ -303,7 +296,7 @@ class SeasonRunner {
       std::size_t next = 0;
       for (std::size_t k = 0; k < still_open; ++k) {
         const std::uint32_t i = open[k];
-        const MatchupParams& p = params[game_matchup[ties[i]]];
+        const Sides& p = params[game_matchup[ties[i]]];
         const ExtraInnings::Inning x = ExtraInnings::inning(rng(), p.home_chance, p.away_chance);
         extra_home[i] += static_cast<std::uint32_t>(x.home);
         extra_away[i] += static_cast<std::uint32_t>(x.away);
@@ -401,7 +394,6 @@ class SeasonRunner {
   GameEngine games_;
   bool postseason_;
   double home_odds_factor_ = 1.0;
-  double scale_cap_ = 0;
 };
 
 }  // namespace

@@ -73,11 +73,12 @@ TEST_CASE("discretised games: regulation outcomes match the exact sums over scor
   // (gamma 1.8): 3.94685430 and 3.50230017 (SciPy 1.10.1 / NumPy 1.24.2;
   // np.sum(np.exp(-(np.arange(1,400)/4.5)**1.8))).
   const double mean_home = 3.94685430, mean_away = 3.502300170349888;
+  const Sides sides = engine.sides(mean_home, mean_away);
   Rng rng = make_stream(5, 0, Purpose::kGames);
   const int n = 1000000;
   int home_ahead = 0, tied = 0, away_ahead = 0, home_wins = 0;
   for (int i = 0; i < n; ++i) {
-    const GameResult r = engine.play_scores<GameModel::kWeibull>(rng, mean_home, mean_away);
+    const GameResult r = engine.play(rng, sides);
     if (r.extra)
       ++tied;
     else if (r.home_won)
@@ -104,7 +105,7 @@ TEST_CASE("extra innings: the home side stops batting once it leads") {
   Rng rng = make_stream(6, 0, Purpose::kGames);
   int extra_home_wins = 0;
   for (int i = 0; i < 200000; ++i) {
-    const GameResult r = engine.play_scores<GameModel::kWeibull>(rng, 4.5, 4.5);
+    const GameResult r = engine.play(rng, engine.sides(4.5, 4.5));
     if (r.extra && r.home_won) {
       ++extra_home_wins;
       REQUIRE(r.home_runs - r.away_runs == 1);  // a walk-off ends at the winning run
@@ -161,6 +162,12 @@ TEST_CASE("log5 games: the home side wins with the log5 probability") {
   int wins = 0;
   // Ref: REFERENCE_VALUES.md section 5; log5(0.60, 0.40) = 9/13 = 0.69230769.
   const double p = 9.0 / 13.0;
-  for (int i = 0; i < n; ++i) wins += GameEngine::play_log5(rng, p).home_won;
+  Plan plan;
+  plan.model = GameModel::kLog5;
+  const GameEngine engine(plan);
+  // Odds 1.5 (a .600 side) against 2/3 (a .400 side): log5 = 1.5 / (1.5 + 2/3) = 9/13.
+  const Sides sides = engine.sides(4.5, 4.5, 1.5, 2.0 / 3.0);
+  REQUIRE(sides.home == Approx(p).epsilon(1e-12));
+  for (int i = 0; i < n; ++i) wins += engine.play(rng, sides).home_won;
   check_share(wins / double(n), p, n);
 }
