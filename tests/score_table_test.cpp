@@ -81,6 +81,29 @@ TEST_CASE("the quantile table follows (-ln(1-u))^(1/gamma)") {
   CHECK(table.quantile(0xffffffffu) == Approx(std::pow(-std::log(0.5 * 0x1.0p-32), 1 / 1.8)));
 }
 
+TEST_CASE("the paired (SSE2) Weibull paths give exactly the scalar values") {
+  // Self-consistency, not a reference: score_pair and scale_pair must equal two calls of score
+  // and scale_for_mean bit for bit, including draws in the exact tail and means past the table.
+  const WeibullTable table(1.83);
+  Rng rng = make_stream(31, 0, Purpose::kGames);
+  const double scale[2] = {5.3, 4.1};
+  for (int i = 0; i < 200000; ++i) {
+    std::uint64_t bits = rng();
+    if (i % 50 == 0) bits |= 0xfff0000000000000ull;  // home draw in the exact tail
+    if (i % 70 == 0) bits |= 0xfff00000ull;          // away draw in the exact tail
+    const WeibullTable::Pair p = table.score_pair(bits, scale);
+    REQUIRE(p.home == table.score(static_cast<std::uint32_t>(bits >> 32), scale[0]));
+    REQUIRE(p.away == table.score(static_cast<std::uint32_t>(bits), scale[1]));
+  }
+  for (double m = 0.0; m < 45.0; m += 0.0137) {
+    const double mean[2] = {m, 45.0 - m};
+    double out[2];
+    table.scale_pair(mean, out);
+    REQUIRE(out[0] == table.scale_for_mean(mean[0]));
+    REQUIRE(out[1] == table.scale_for_mean(mean[1]));
+  }
+}
+
 TEST_CASE("Weibull scores follow the discretised pmf") {
   const WeibullTable table(1.8);
   // Ref: REFERENCE_VALUES.md section 3 (alpha 5.0, gamma 1.8); P(k) for k = 0..6.

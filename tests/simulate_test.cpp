@@ -17,6 +17,7 @@
 #include <cmath>
 #include <numeric>
 
+#include "engine/game.h"
 #include "models/ratings.h"
 
 using namespace standfast;
@@ -450,4 +451,55 @@ TEST_CASE("other families, a single bracket, extra tiebreak games and an innings
     else
       CHECK(one.drawn_games == 0);
   }
+}
+
+TEST_CASE("regular-season ties and drawn games match closed forms of the stated laws") {
+  // Every side has the league mean (4.5 runs, equal teams, no home edge, no venue factor, no
+  // strength uncertainty), so every game is the same pair of discretised Weibull scores
+  // (location -1/2, shape 1.83): P(tie) = sum_k P(k)^2 with P(score >= k) = exp(-(k/a)^1.83)
+  // (REFERENCE_VALUES.md section 3's construction), a solving sum_{k>=1} exp(-(k/a)^g) = 4.5,
+  // computed here by bisection independently of the engine's tables. With a 10-inning cap a
+  // tied game is drawn when its one extra inning is tied: engine/game.h's stated law, closed
+  // form as in tests/game_test.cpp, P = (1-s)^2 + s^2 (1-q)^2 / (1-q^2), s = 4.5/9 (1-q) 2.2.
+  config::Season s = twelve_teams();
+  s.overrides.clear();
+  for (auto& t : s.teams) t.run_factor = 1.0;
+  s.league.extra_innings.runner_on_second = true;
+  s.league.extra_innings.max_innings = 10;
+  const Plan plan = compile_plan(s, neutral_ratings(s, config::ScoreFamily::kWeibull));
+  RunOptions opt;
+  opt.seed = 5;
+  opt.seasons = 30000;
+  const SimulationResult r = simulate(plan, opt);
+
+  const double g = 1.83, mean = 4.5;
+  auto discrete_mean = [&](double a) {
+    double sum = 0;
+    for (int k = 1; k < 400; ++k) sum += std::exp(-std::pow(k / a, g));
+    return sum;
+  };
+  double lo = 1, hi = 20;
+  for (int i = 0; i < 200; ++i) {
+    const double mid = 0.5 * (lo + hi);
+    (discrete_mean(mid) < mean ? lo : hi) = mid;
+  }
+  const double a = 0.5 * (lo + hi);
+  double p_tie = 0;
+  for (int k = 0; k < 400; ++k) {
+    const double pk =
+        (k == 0 ? 1.0 : std::exp(-std::pow(k / a, g))) - std::exp(-std::pow((k + 1) / a, g));
+    p_tie += pk * pk;
+  }
+  const double n = static_cast<double>(r.games_simulated);
+  const double tie_share = static_cast<double>(r.extra_innings_games) / n;
+  INFO("tie share " << tie_share << " expected " << p_tie);
+  CHECK(std::abs(tie_share - p_tie) <= 4 * std::sqrt(p_tie * (1 - p_tie) / n));
+
+  const double q = ExtraInnings::RUN_CONTINUATION;
+  const double sc = mean / 9 * (1 - q) * ExtraInnings::RUNNER_FACTOR;
+  const double p_draw = (1 - sc) * (1 - sc) + sc * sc * (1 - q) * (1 - q) / (1 - q * q);
+  const double m = static_cast<double>(r.extra_innings_games);
+  const double drawn_share = static_cast<double>(r.drawn_games) / m;
+  INFO("drawn share of ties " << drawn_share << " expected " << p_draw);
+  CHECK(std::abs(drawn_share - p_draw) <= 4 * std::sqrt(p_draw * (1 - p_draw) / m));
 }
