@@ -11,6 +11,8 @@
 //     engine's games stream, two 32-bit draws per game, the winner tallied into a per-thread
 //     per-team counter, in the same parallel batches; its seasons and games per second, and the
 //     ratio engine / floor;
+//   - the score sampler alone (Weibull model): nanoseconds per game for a 64-bit draw, and for
+//     the draw turned into both scores;
 //   - peak memory (getrusage ru_maxrss) after the N-season runs and, with --full, after a
 //     1,000,000-season run on 2 threads whose wall time is set against the 10 s target.
 // Figures depend on the machine and its load: the load average is printed alongside.
@@ -34,6 +36,7 @@
 #include <vector>
 
 #include "config/load.h"
+#include "engine/game.h"
 #include "engine/plan.h"
 #include "engine/rng.h"
 #include "engine/simulate.h"
@@ -144,6 +147,34 @@ Timing time_floor(const engine::Plan& plan, std::uint64_t seasons, std::uint64_t
   return t;
 }
 
+// The score sampler alone: nanoseconds per game for one 64-bit draw, and for the draw turned
+// into both scores of a game (WeibullTable::score_pair at the league-mean scale), each over
+// `games` games on one thread. The difference is the sampler's own cost.
+struct SamplerTiming {
+  double draw_ns = 0, scores_ns = 0;
+  std::uint64_t checksum = 0;
+};
+
+SamplerTiming time_sampler(const engine::Plan& plan, std::uint64_t games, std::uint64_t seed) {
+  SamplerTiming t;
+  if (plan.model != engine::GameModel::kWeibull) return t;
+  const engine::GameEngine engine(plan);
+  const engine::Sides sides = engine.sides(plan.league_mean * plan.home_edge, plan.league_mean);
+  engine::Rng rng = engine::make_stream(seed, 0, engine::Purpose::kGames);
+  std::uint64_t sum = 0;
+  auto start = Clock::now();
+  for (std::uint64_t g = 0; g < games; ++g) sum += rng() >> 60;
+  t.draw_ns = seconds_since(start) * 1e9 / static_cast<double>(games);
+  start = Clock::now();
+  for (std::uint64_t g = 0; g < games; ++g) {
+    const engine::WeibullTable::Pair p = engine.weibull().score_pair(rng(), &sides.home);
+    sum += static_cast<std::uint64_t>(p.home - p.away + 64);
+  }
+  t.scores_ns = seconds_since(start) * 1e9 / static_cast<double>(games);
+  t.checksum = sum;
+  return t;
+}
+
 std::string with_commas(double x) {
   const std::string digits = fmt::format("{:.0f}", x);
   std::string out;
@@ -238,6 +269,13 @@ int run(int argc, char** argv) {
              (static_cast<double>(e2.games) / e2.cpu) / (static_cast<double>(f2.games) / f2.cpu));
   fmt::print("peak memory after the {}-season runs: {:.1f} MiB  (target < 200)\n",
              with_commas(static_cast<double>(seasons)), peak_after_n);
+
+  const SamplerTiming sampler = time_sampler(plan, 50'000'000, seed);
+  if (sampler.scores_ns > 0)
+    fmt::print(
+        "score sampler, 1 thread: {:.2f} ns per game for the 64-bit draw alone, {:.2f} ns with "
+        "both scores;\n  the sampler's own cost {:.2f} ns per game (checksum {})\n",
+        sampler.draw_ns, sampler.scores_ns, sampler.scores_ns - sampler.draw_ns, sampler.checksum);
 
   if (full) {
     const Timing big = time_engine(plan, FULL_SEASONS, seed, 2);
