@@ -3,6 +3,7 @@
 // standard bracket order is common practice (1 v 8, 4 v 5, 2 v 7, 3 v 6).
 #include "engine/plan.h"
 
+#include <algorithm>
 #include <catch2/catch.hpp>
 
 #include "models/ratings.h"
@@ -118,4 +119,33 @@ TEST_CASE("overrides switch a team to its second slot from their date on") {
   CHECK(p.overrides[0].offence == Approx(6.6 / 4.4));
   CHECK(p.final_slot[0] == 8);
   CHECK(p.final_slot[1] == 1);
+}
+
+TEST_CASE("matchups group games with the same slots and factors, at most 2047 games each") {
+  auto s = league(6, 2);
+  // Day 3 (0 v 6), day 5 (7 v 0), day 9 (2 v 3), undated (4 v 5): four matchups. Then 4,100
+  // more games of 2 at 3, which with day 9's game make 4,101: matchups of 2047, 2047 and 7.
+  for (int i = 0; i < 4100; ++i) {
+    config::Game g;
+    g.date = 19100 + i;
+    g.home = 2;
+    g.away = 3;
+    s.games.push_back(g);
+  }
+  const Plan p = compile_plan(s, ratings(8));
+  REQUIRE(p.remaining_games() == 4104);
+  REQUIRE(p.game_matchup.size() == 4104);
+  std::vector<int> size(p.matchups.size(), 0);
+  for (std::size_t g = 0; g < p.remaining_games(); ++g) {
+    const Matchup& m = p.matchups[p.game_matchup[g]];
+    REQUIRE(m.home_slot == p.home_slot[g]);
+    REQUIRE(m.away_slot == p.away_slot[g]);
+    REQUIRE(m.home_factor == p.home_factor[g]);
+    REQUIRE(m.away_factor == p.away_factor[g]);
+    ++size[p.game_matchup[g]];
+  }
+  REQUIRE(p.matchups.size() == 6);
+  std::sort(size.begin(), size.end());
+  CHECK(size == std::vector<int>{1, 1, 1, 7, 2047, 2047});
+  CHECK(p.totals.groups() == 6);
 }
