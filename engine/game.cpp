@@ -10,21 +10,18 @@ ExtraInnings::ExtraInnings(int regulation_innings, const config::ExtraInningsRul
 
 void ExtraInnings::play_chances(Rng& rng, double home_chance, double away_chance, GameResult& r,
                                 bool cap_innings) const {
+  Sides sides;
+  sides.home_chance = home_chance;
+  sides.away_chance = away_chance;
+  std::uint32_t open = 0;
+  Outcome out;
+  const std::size_t drawn = play_all(
+      rng, 1, [&](std::size_t) -> const Sides& { return sides; }, &open, &out, cap_innings);
   r.extra = true;
-  for (int number = regulation_ + 1;; ++number) {
-    if (cap_innings && max_innings_ > 0 && number > max_innings_) {
-      r.drawn = true;
-      r.home_won = (rng() >> 63) != 0;
-      return;
-    }
-    const Inning x = inning(rng(), home_chance, away_chance);
-    r.away_runs += x.away;
-    r.home_runs += x.home;
-    if (x.home != x.away) {
-      r.home_won = x.home > x.away;
-      return;
-    }
-  }
+  r.drawn = drawn > 0;
+  r.home_runs += static_cast<int>(out.home_runs);
+  r.away_runs += static_cast<int>(out.away_runs);
+  r.home_won = out.home_won;
 }
 
 namespace {

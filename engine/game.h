@@ -37,6 +37,15 @@ struct GameResult {
   bool drawn = false;  // tied at the innings cap, settled by a draw
 };
 
+// One pairing's parameters (home side at its venue against the away side), computed once and
+// used for every game of the pairing: per side the Weibull scale or the count family's mean
+// (log5: `home` is the home side's chance of winning), and each side's chance of scoring in an
+// extra half-inning.
+struct Sides {
+  double home = 0, away = 0;  // adjacent: WeibullTable::score_pair reads both at once
+  double home_chance = 0, away_chance = 0;
+};
+
 class ExtraInnings {
  public:
   static constexpr double RUN_CONTINUATION = 0.43;
@@ -94,9 +103,49 @@ class ExtraInnings {
     play_chances(rng, scoring_chance(home_mean), scoring_chance(away_mean), r, cap_innings);
   }
 
-  // The same with the sides' scoring chances per half-inning (scoring_chance of their means).
+  // The same with the sides' scoring chances per half-inning (scoring_chance of their means):
+  // play_all for one game.
   void play_chances(Rng& rng, double home_chance, double away_chance, GameResult& r,
                     bool cap_innings = true) const;
+
+  // Extra innings of n tied games together. Each pass plays the next inning of every game still
+  // tied, one draw per game in game order (inning()), and keeps the still-tied ones, without a
+  // branch per game. With cap_innings, the games still tied after the league's innings cap are
+  // settled by a fair draw (one draw each, in order). sides(i) gives game i's scoring chances
+  // (a const Sides&); `open` is scratch space for n indexes; out[i] receives game i's extra runs
+  // and winner. Returns the number of games settled by the draw.
+  struct Outcome {
+    std::uint32_t home_runs = 0, away_runs = 0;
+    bool home_won = false;
+  };
+  template <class SidesOf>
+  std::size_t play_all(Rng& rng, std::size_t n, SidesOf&& sides, std::uint32_t* open, Outcome* out,
+                       bool cap_innings) const {
+    for (std::size_t i = 0; i < n; ++i) {
+      open[i] = static_cast<std::uint32_t>(i);
+      out[i] = Outcome{};
+    }
+    std::size_t still_open = n;
+    for (int number = regulation_ + 1; still_open > 0; ++number) {
+      if (cap_innings && max_innings_ > 0 && number > max_innings_) {
+        for (std::size_t k = 0; k < still_open; ++k) out[open[k]].home_won = (rng() >> 63) != 0;
+        return still_open;
+      }
+      std::size_t next = 0;
+      for (std::size_t k = 0; k < still_open; ++k) {
+        const std::uint32_t i = open[k];
+        const Sides& p = sides(i);
+        const Inning x = inning(rng(), p.home_chance, p.away_chance);
+        out[i].home_runs += static_cast<std::uint32_t>(x.home);
+        out[i].away_runs += static_cast<std::uint32_t>(x.away);
+        out[i].home_won = x.home > x.away;
+        open[next] = i;
+        next += x.home == x.away;
+      }
+      still_open = next;
+    }
+    return 0;
+  }
 
   int regulation_innings() const { return regulation_; }
   int max_innings() const { return max_innings_; }  // 0: no cap
@@ -105,15 +154,6 @@ class ExtraInnings {
   int regulation_ = 9;
   int max_innings_ = 0;
   double per_inning_ = 0;  // (1 - q) / innings, times RUNNER_FACTOR with the runner rule
-};
-
-// One pairing's parameters (home side at its venue against the away side), computed once and
-// used for every game of the pairing: per side the Weibull scale or the count family's mean
-// (log5: `home` is the home side's chance of winning), and each side's chance of scoring in an
-// extra half-inning.
-struct Sides {
-  double home = 0, away = 0;  // adjacent: WeibullTable::score_pair reads both at once
-  double home_chance = 0, away_chance = 0;
 };
 
 // The run's game machinery: the model, its tables and the extra-innings rule.

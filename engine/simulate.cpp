@@ -6,7 +6,6 @@
 #include <tbb/parallel_for.h>
 
 #include <algorithm>
-#include <array>
 #include <cmath>
 #include <memory>
 #include <optional>
@@ -34,18 +33,12 @@ static_assert(GameEngine::max_regulation_runs() <= TotalsLayout::MAX_RUNS / 2);
 
 // Per-thread working space and tallies. Holds no random state.
 struct Worker {
-  std::vector<double> off, def, odds;  // per slot: league mean x offence, defence, log5 odds
-  std::vector<double> z, x;            // normal draws and correlated log deviations
-  std::vector<Sides> matchup;          // per matchup of the plan, for the season's strengths
-  struct PairParams {                  // games outside the schedule (tiebreak games, postseason)
-    int home = -1, away = -1;
-    Sides params;
-  };
-  std::array<PairParams, 2> pair_cache;  // valid for the current season only
-  int pair_next = 0;
-  std::vector<std::uint32_t> ties;  // remaining games tied after regulation (this season)
-  std::vector<std::uint32_t> tie_open, tie_home_runs, tie_away_runs;  // per tie: extra innings
-  std::vector<std::uint8_t> tie_home_won;
+  std::vector<double> off, def, odds;   // per slot: league mean x offence, defence, log5 odds
+  std::vector<double> z, x;             // normal draws and correlated log deviations
+  std::vector<Sides> matchup;           // per matchup of the plan, for the season's strengths
+  std::vector<std::uint32_t> ties;      // remaining games tied after regulation (this season)
+  std::vector<std::uint32_t> tie_open;  // scratch of ExtraInnings::play_all
+  std::vector<ExtraInnings::Outcome> tie_outcome;  // per tie: its extra innings
   SeasonTotals totals;
   SeasonRecord record;
   LeagueRanking ranking;
@@ -66,9 +59,7 @@ struct Worker {
         matchup(plan.matchups.size()),
         ties(plan.remaining_games()),
         tie_open(plan.remaining_games()),
-        tie_home_runs(plan.remaining_games()),
-        tie_away_runs(plan.remaining_games()),
-        tie_home_won(plan.remaining_games()),
+        tie_outcome(plan.remaining_games()),
         totals(plan.totals),
         record(plan.played),
         ranking(plan.seeder.make_ranking()),
@@ -94,7 +85,6 @@ class SeasonRunner {
   }
 
   void run(SeasonStreams& streams, Worker& w) const {
-    for (Worker::PairParams& e : w.pair_cache) e.home = -1;  // new strengths, new parameters
     Rng strengths = streams.stream(Purpose::kStrengths);
     draw_strengths(strengths, w);
     w.record = plan_.played;  // same size: copies without allocating
@@ -133,25 +123,14 @@ class SeasonRunner {
 
   // A game outside the regular schedule (extra tiebreak game or postseason) at home's venue,
   // with both teams' end-of-season parameters; played to a decision.
-  // A series alternates between two venues, so the parameters of the last two (home, away)
-  // pairs of the season are kept (Worker::pair_cache).
-  int play_one(Rng& rng, Worker& w, int home, int away) const {
-    Worker::PairParams* c = nullptr;
-    for (Worker::PairParams& e : w.pair_cache)
-      if (e.home == home && e.away == away) c = &e;
-    if (c == nullptr) {
-      c = &w.pair_cache[w.pair_next];
-      w.pair_next ^= 1;
-      c->home = home;
-      c->away = away;
-      const auto hs = plan_.final_slot[static_cast<std::size_t>(home)];
-      const auto as = plan_.final_slot[static_cast<std::size_t>(away)];
-      const double rf = plan_.run_factor[static_cast<std::size_t>(home)];
-      c->params =
-          games_.sides(w.off[hs] * w.def[as] * rf * plan_.home_edge, w.off[as] * w.def[hs] * rf,
-                       w.odds[hs] * home_odds_factor_, w.odds[as]);
-    }
-    return games_.play(rng, c->params, /*cap=*/false).home_won ? home : away;
+  int play_one(Rng& rng, const Worker& w, int home, int away) const {
+    const auto hs = plan_.final_slot[static_cast<std::size_t>(home)];
+    const auto as = plan_.final_slot[static_cast<std::size_t>(away)];
+    const double rf = plan_.run_factor[static_cast<std::size_t>(home)];
+    const Sides sides =
+        games_.sides(w.off[hs] * w.def[as] * rf * plan_.home_edge, w.off[as] * w.def[hs] * rf,
+                     w.odds[hs] * home_odds_factor_, w.odds[as]);
+    return games_.play(rng, sides, /*cap=*/false).home_won ? home : away;
   }
 
   void draw_strengths(Rng& rng, Worker& w) const {
@@ -271,47 +250,18 @@ class SeasonRunner {
       }
       totals.add(g, m, home_won, hr, ar);
     }
-    // Extra innings for all the tied games together, one inning at a time: each pass plays the
-    // next inning of every game still tied (ExtraInnings::inning, as play_chances does game by
-    // game) and keeps the still-tied ones, without a branch per game. A game still
-    // tied after the league's innings cap is settled by a fair draw.
-    std::uint32_t* open = w.tie_open.data();
-    std::uint32_t* extra_home = w.tie_home_runs.data();
-    std::uint32_t* extra_away = w.tie_away_runs.data();
-    std::uint8_t* home_wins = w.tie_home_won.data();
-    for (std::size_t i = 0; i < tied; ++i) {
-      open[i] = static_cast<std::uint32_t>(i);
-      extra_home[i] = extra_away[i] = 0;
-    }
-    std::size_t still_open = tied;
-    std::uint64_t drawn = 0;
-    const int cap = extra_innings.max_innings();
-    for (int inning = extra_innings.regulation_innings() + 1; still_open > 0; ++inning) {
-      if (cap > 0 && inning > cap) {
-        for (std::size_t k = 0; k < still_open; ++k)
-          home_wins[open[k]] = static_cast<std::uint8_t>(rng() >> 63);
-        drawn = still_open;
-        break;
-      }
-      std::size_t next = 0;
-      for (std::size_t k = 0; k < still_open; ++k) {
-        const std::uint32_t i = open[k];
-        const Sides& p = params[game_matchup[ties[i]]];
-        const ExtraInnings::Inning x = ExtraInnings::inning(rng(), p.home_chance, p.away_chance);
-        extra_home[i] += static_cast<std::uint32_t>(x.home);
-        extra_away[i] += static_cast<std::uint32_t>(x.away);
-        home_wins[i] = x.home > x.away;
-        open[next] = i;
-        next += x.home == x.away;
-      }
-      still_open = next;
-    }
+    // Then extra innings for all the tied games together (ExtraInnings::play_all), drawing on
+    // from the same stream.
     stream = rng;
+    ExtraInnings::Outcome* outcome = w.tie_outcome.data();
+    const std::uint64_t drawn = extra_innings.play_all(
+        stream, tied, [&](std::size_t i) -> const Sides& { return params[game_matchup[ties[i]]]; },
+        w.tie_open.data(), outcome, /*cap_innings=*/true);
     constexpr std::uint32_t room = TotalsLayout::MAX_RUNS - TotalsLayout::MAX_RUNS / 2;
     for (std::size_t i = 0; i < tied; ++i) {
       const std::uint32_t g = ties[i];
-      totals.add_extra(g, game_matchup[g], home_wins[i], std::min(extra_home[i], room),
-                       std::min(extra_away[i], room));
+      totals.add_extra(g, game_matchup[g], outcome[i].home_won,
+                       std::min(outcome[i].home_runs, room), std::min(outcome[i].away_runs, room));
     }
     const std::uint64_t extra = tied;
     w.totals.add_to(w.record);
