@@ -46,29 +46,34 @@ inline double uniform01(Rng& rng) { return static_cast<double>(rng() >> 11) * 0x
 // Uniform integer on [0, n), unbiased (pcg's rejection method). n > 0.
 inline std::uint64_t uniform_below(Rng& rng, std::uint64_t n) { return rng(n); }
 
-// Standard normal by the Marsaglia polar method (one value per call; the spare is dropped so a
-// draw consumes a fixed-for-the-seed, thread-independent amount of the stream).
-inline double standard_normal(Rng& rng) {
+// One accepted pair of the Marsaglia polar method: u f and v f are two independent standard
+// normals.
+struct PolarPair {
+  double u, v, f;
+};
+inline PolarPair polar_pair(Rng& rng) {
   for (;;) {
     const double u = 2.0 * uniform01(rng) - 1.0;
     const double v = 2.0 * uniform01(rng) - 1.0;
     const double s = u * u + v * v;
-    if (s > 0.0 && s < 1.0) return u * std::sqrt(-2.0 * std::log(s) / s);
+    if (s > 0.0 && s < 1.0) return {u, v, std::sqrt(-2.0 * std::log(s) / s)};
   }
 }
 
-// n standard normals by the polar method, both values of each accepted pair used (the last
-// pair's second value is dropped when n is odd). Half the work of n calls to standard_normal.
+// Standard normal, one value per call: the pair's second value is dropped, so a call always
+// uses one accepted pair of the stream.
+inline double standard_normal(Rng& rng) {
+  const PolarPair p = polar_pair(rng);
+  return p.u * p.f;
+}
+
+// n standard normals, both values of each pair used (the last pair's second value is dropped
+// when n is odd). Half the work of n calls to standard_normal.
 inline void standard_normals(Rng& rng, double* out, std::size_t n) {
-  std::size_t i = 0;
-  while (i < n) {
-    const double u = 2.0 * uniform01(rng) - 1.0;
-    const double v = 2.0 * uniform01(rng) - 1.0;
-    const double s = u * u + v * v;
-    if (!(s > 0.0 && s < 1.0)) continue;
-    const double f = std::sqrt(-2.0 * std::log(s) / s);
-    out[i++] = u * f;
-    if (i < n) out[i++] = v * f;
+  for (std::size_t i = 0; i < n; i += 2) {
+    const PolarPair p = polar_pair(rng);
+    out[i] = p.u * p.f;
+    if (i + 1 < n) out[i + 1] = p.v * p.f;
   }
 }
 

@@ -23,18 +23,6 @@ bool within_group(const config::Season& season, int g, const std::string& id) {
   return false;
 }
 
-// 1234567 -> "1,234,567" (no locale: the output must not depend on the environment).
-std::string group_digits(std::uint64_t n) {
-  std::string digits = fmt::format("{}", n);
-  std::string out;
-  const int len = static_cast<int>(digits.size());
-  for (int i = 0; i < len; ++i) {
-    if (i > 0 && (len - i) % 3 == 0) out += ',';
-    out += digits[i];
-  }
-  return out;
-}
-
 // Projected final record from the mean wins and losses, rounded so that the two add up to the
 // rounded mean number of decided games.
 std::string projected_record(const engine::TeamOdds& o) {

@@ -13,6 +13,17 @@
 
 namespace standfast::tools {
 
+std::string group_digits(std::uint64_t n) {
+  const std::string digits = fmt::format("{}", n);
+  std::string out;
+  const std::size_t len = digits.size();
+  for (std::size_t i = 0; i < len; ++i) {
+    if (i > 0 && (len - i) % 3 == 0) out += ',';
+    out += digits[i];
+  }
+  return out;
+}
+
 void write_output(const std::string& path, std::string_view content) {
   if (path.empty() || path == "-") {
     std::fwrite(content.data(), 1, content.size(), stdout);

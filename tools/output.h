@@ -3,6 +3,7 @@
 #ifndef STANDFAST_TOOLS_OUTPUT_H
 #define STANDFAST_TOOLS_OUTPUT_H
 
+#include <cstdint>
 #include <string>
 #include <string_view>
 
@@ -17,6 +18,9 @@ enum class Format { kTable, kCsv, kJson };
 
 // Parses "table", "csv" or "json"; throws UsageError otherwise.
 Format parse_format(const std::string& name);
+
+// 1234567 -> "1,234,567", with no locale: the output must not depend on the environment.
+std::string group_digits(std::uint64_t n);
 
 // CSV field quoting (RFC 4180): quotes the field when it holds a comma, quote or line break.
 std::string csv_field(std::string_view text);

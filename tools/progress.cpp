@@ -7,23 +7,14 @@
 #include <cmath>
 #include <cstdio>
 
+#include "tools/output.h"
+
 namespace standfast::tools {
 namespace {
 
 constexpr int BAR_CELLS = 24;
 constexpr double SHOW_AFTER_S = 1.0;
 constexpr double REDRAW_EVERY_S = 0.1;
-
-std::string thousands(std::uint64_t n) {
-  const std::string digits = fmt::format("{}", n);
-  std::string out;
-  const std::size_t len = digits.size();
-  for (std::size_t i = 0; i < len; ++i) {
-    if (i > 0 && (len - i) % 3 == 0) out += ',';
-    out += digits[i];
-  }
-  return out;
-}
 
 }  // namespace
 
@@ -35,7 +26,7 @@ std::string render_progress(std::uint64_t done, std::uint64_t total, double elap
   std::string bar = std::string(static_cast<std::size_t>(filled), '#') +
                     std::string(static_cast<std::size_t>(BAR_CELLS - filled), '-');
   std::string text = fmt::format("simulating [{}] {:3.0f}%  {} of {} seasons", bar,
-                                 std::floor(100.0 * frac), thousands(done), thousands(total));
+                                 std::floor(100.0 * frac), group_digits(done), group_digits(total));
   if (done > 0 && done < total && elapsed_s > 0) {
     const double left = elapsed_s * static_cast<double>(total - done) / static_cast<double>(done);
     text += fmt::format(", about {:.0f} s left", std::ceil(left));

@@ -27,6 +27,7 @@
 #include <CLI/CLI.hpp>
 #include <algorithm>
 #include <chrono>
+#include <cmath>
 #include <cstdint>
 #include <exception>
 #include <fstream>
@@ -41,6 +42,7 @@
 #include "engine/rng.h"
 #include "engine/simulate.h"
 #include "models/ratings.h"
+#include "tools/output.h"
 
 namespace {
 
@@ -175,16 +177,8 @@ SamplerTiming time_sampler(const engine::Plan& plan, std::uint64_t games, std::u
   return t;
 }
 
-std::string with_commas(double x) {
-  const std::string digits = fmt::format("{:.0f}", x);
-  std::string out;
-  const std::size_t len = digits.size();
-  for (std::size_t i = 0; i < len; ++i) {
-    if (i > 0 && (len - i) % 3 == 0) out += ',';
-    out += digits[i];
-  }
-  return out;
-}
+// A rate or count, rounded, with grouped digits.
+std::string with_commas(double x) { return tools::group_digits(std::llround(x)); }
 
 void print_row(const std::string& what, int threads, const Timing& t) {
   fmt::print("{:<12} {:>7} {:>10} {:>8.3f} {:>8.3f} {:>11} {:>13} {:>17}\n", what, threads,
