@@ -86,6 +86,17 @@ struct Recorder {
   }
 };
 
+// The season's ranking with this record, from tiebreak stream 0 of seed 0.
+standfast::engine::LeagueRanking rank_once(const standfast::config::Season& season,
+                                           const SeasonRecord& r, ExtraGame extra = {}) {
+  const Seeder seeder(season);
+  auto out = seeder.make_ranking();
+  auto scratch = seeder.make_scratch();
+  auto rng = make_stream(0, 0, Purpose::kTiebreak);
+  seeder.rank(r, rng, scratch, out, extra);
+  return out;
+}
+
 }  // namespace
 
 TEST_CASE("division winners first, then at-large teams by record") {
@@ -98,11 +109,7 @@ TEST_CASE("division winners first, then at-large teams by record") {
   set_record(r, L.D, L.Z, 5, 5);
   set_record(r, L.E, L.Z, 7, 3);
   set_record(r, L.F, L.Z, 1, 9);
-  const Seeder seeder(L.lg.season);
-  auto out = seeder.make_ranking();
-  auto scratch = seeder.make_scratch();
-  auto rng = make_stream(0, 0, Purpose::kTiebreak);
-  seeder.rank(r, rng, scratch, out);
+  const auto out = rank_once(L.lg.season, r);
   REQUIRE(out.division(0).size() == 3);
   REQUIRE(out.division_winner(0) == L.A);
   REQUIRE(out.division_winner(1) == L.E);
@@ -129,11 +136,7 @@ TEST_CASE("without winners_first every qualifier is seeded by record") {
   set_record(r, L.D, L.Z, 5, 5);
   set_record(r, L.E, L.Z, 6, 4);
   set_record(r, L.F, L.Z, 1, 9);
-  const Seeder seeder(L.lg.season);
-  auto out = seeder.make_ranking();
-  auto scratch = seeder.make_scratch();
-  auto rng = make_stream(0, 0, Purpose::kTiebreak);
-  seeder.rank(r, rng, scratch, out);
+  const auto out = rank_once(L.lg.season, r);
   REQUIRE(seeds_of(out, 0) == std::vector<int>{L.A, L.B, L.E, L.D});
 }
 
@@ -149,12 +152,8 @@ TEST_CASE("a two-team tie for a division title goes to an extra game when the se
   set_record(r, L.D, L.Z, 5, 5);
   set_record(r, L.E, L.Z, 7, 3);
   set_record(r, L.F, L.Z, 1, 9);
-  const Seeder seeder(L.lg.season);
-  auto out = seeder.make_ranking();
-  auto scratch = seeder.make_scratch();
-  auto rng = make_stream(0, 0, Purpose::kTiebreak);
   Recorder rec;
-  seeder.rank(r, rng, scratch, out, ExtraGame{&rec, &Recorder::play});
+  const auto out = rank_once(L.lg.season, r, ExtraGame{&rec, &Recorder::play});
   REQUIRE(rec.calls.size() == 1);
   REQUIRE(rec.calls[0] == std::pair<int, int>{L.A, L.B});
   REQUIRE(out.division_winner(0) == L.B);
@@ -163,10 +162,9 @@ TEST_CASE("a two-team tie for a division title goes to an extra game when the se
   REQUIRE(seeds_of(out, 0) == std::vector<int>{L.B, L.E, L.A, L.D});
 
   // Without a hook the procedure decides: A (better run differential).
-  auto rng2 = make_stream(0, 0, Purpose::kTiebreak);
-  seeder.rank(r, rng2, scratch, out);
-  REQUIRE(out.division_winner(0) == L.A);
-  REQUIRE(out.extra_games == 0);
+  const auto decided = rank_once(L.lg.season, r);
+  REQUIRE(decided.division_winner(0) == L.A);
+  REQUIRE(decided.extra_games == 0);
 }
 
 TEST_CASE("a two-team tie for the last at-large berth goes to an extra game; three do not") {
@@ -181,12 +179,8 @@ TEST_CASE("a two-team tie for the last at-large berth goes to an extra game; thr
   set_record(r, L.D, L.Z, 5, 5, 3);
   set_record(r, L.E, L.Z, 7, 3);
   set_record(r, L.F, L.Z, 1, 9);
-  const Seeder seeder(L.lg.season);
-  auto out = seeder.make_ranking();
-  auto scratch = seeder.make_scratch();
-  auto rng = make_stream(0, 0, Purpose::kTiebreak);
   Recorder rec;
-  seeder.rank(r, rng, scratch, out, ExtraGame{&rec, &Recorder::play});
+  const auto out = rank_once(L.lg.season, r, ExtraGame{&rec, &Recorder::play});
   REQUIRE(rec.calls == std::vector<std::pair<int, int>>{{L.D, L.C}});
   REQUIRE(seeds_of(out, 0) == std::vector<int>{L.A, L.E, L.B, L.C});
 
@@ -201,10 +195,8 @@ TEST_CASE("a two-team tie for the last at-large berth goes to an extra game; thr
   set_record(r3, L3.D, L3.Z, 5, 5, 3);
   set_record(r3, L3.E, L3.Z, 7, 3);
   set_record(r3, L3.F, L3.Z, 5, 5, 2);
-  const Seeder seeder3(L3.lg.season);
-  auto out3 = seeder3.make_ranking();
   Recorder rec3;
-  seeder3.rank(r3, rng, scratch, out3, ExtraGame{&rec3, &Recorder::play});
+  const auto out3 = rank_once(L3.lg.season, r3, ExtraGame{&rec3, &Recorder::play});
   REQUIRE(rec3.calls.empty());
   REQUIRE(seeds_of(out3, 0) == std::vector<int>{L3.A, L3.E, L3.B, L3.D});
 }
@@ -222,11 +214,7 @@ TEST_CASE("single bracket: every conference's division winners, then the at-larg
   set_record(r, L.K, L.Z, 4, 6);
   set_record(r, L.J, L.Z, 3, 7);
   set_record(r, L.L, L.Z, 2, 8);
-  const Seeder seeder(L.lg.season);
-  auto out = seeder.make_ranking();
-  auto scratch = seeder.make_scratch();
-  auto rng = make_stream(0, 0, Purpose::kTiebreak);
-  seeder.rank(r, rng, scratch, out);
+  const auto out = rank_once(L.lg.season, r);
   REQUIRE(seeds_of(out, 1) == std::vector<int>{L.G, L.K, L.H});
   // Winners G (.900), A (.800), E (.700), K (.400); then at-large H (.700), B (.600).
   REQUIRE(out.league_seeds == std::vector<int>{L.G, L.A, L.E, L.K, L.H, L.B});
