@@ -261,6 +261,10 @@ Plan compile_plan(const config::Season& season, const models::LeagueRatings& rat
     return d ? *d : UNDATED;
   };
   std::stable_sort(order.begin(), order.end(), [&](int a, int b) { return day_of(a) < day_of(b); });
+  // Matchups: games with the same slots and venue factors; a matchup is closed after
+  // TotalsLayout::MAX_GROUP_GAMES games (the season's tally groups games by matchup).
+  std::map<std::tuple<std::uint16_t, std::uint16_t, float, float>, std::uint32_t> matchup_index;
+  std::vector<std::uint32_t> matchup_size;
   for (int i : order) {
     const auto& g = season.games[static_cast<std::size_t>(i)];
     const config::DayNumber day = day_of(i);
@@ -271,11 +275,19 @@ Plan compile_plan(const config::Season& season, const models::LeagueRatings& rat
     };
     plan.home_team.push_back(static_cast<std::uint16_t>(g.home));
     plan.away_team.push_back(static_cast<std::uint16_t>(g.away));
-    plan.home_slot.push_back(slot(g.home));
-    plan.away_slot.push_back(slot(g.away));
     const double rf = season.teams[static_cast<std::size_t>(g.home)].run_factor;
-    plan.home_factor.push_back(static_cast<float>(rf * plan.home_edge));
-    plan.away_factor.push_back(static_cast<float>(rf));
+    const Matchup m{slot(g.home), slot(g.away), static_cast<float>(rf * plan.home_edge),
+                    static_cast<float>(rf)};
+    const auto key = std::make_tuple(m.home_slot, m.away_slot, m.home_factor, m.away_factor);
+    auto it = matchup_index.find(key);
+    if (it == matchup_index.end() || matchup_size[it->second] == TotalsLayout::MAX_GROUP_GAMES) {
+      it = matchup_index.insert_or_assign(key, static_cast<std::uint32_t>(plan.matchups.size()))
+               .first;
+      plan.matchups.push_back(m);
+      matchup_size.push_back(0);
+    }
+    ++matchup_size[it->second];
+    plan.game_matchup.push_back(it->second);
     plan.day.push_back(day);
     plan.game_index.push_back(i);
   }
@@ -284,26 +296,6 @@ Plan compile_plan(const config::Season& season, const models::LeagueRatings& rat
     plan.final_slot.push_back(
         static_cast<std::uint16_t>(has[static_cast<std::size_t>(t)] ? t + n : t));
   plan.played = played_record(season);
-  {
-    // Matchups: games with the same slots and venue factors; a matchup is closed after
-    // TotalsLayout::MAX_GROUP_GAMES games (the season's tally groups games by matchup).
-    std::map<std::tuple<std::uint16_t, std::uint16_t, float, float>, std::uint32_t> index;
-    std::vector<std::uint32_t> size;
-    for (std::size_t g = 0; g < plan.home_team.size(); ++g) {
-      const Matchup m{plan.home_slot[g], plan.away_slot[g], plan.home_factor[g],
-                      plan.away_factor[g]};
-      const auto key = std::make_tuple(m.home_slot, m.away_slot, m.home_factor, m.away_factor);
-      auto it = index.find(key);
-      if (it == index.end() || size[it->second] == TotalsLayout::MAX_GROUP_GAMES) {
-        index[key] = static_cast<std::uint32_t>(plan.matchups.size());
-        plan.matchups.push_back(m);
-        size.push_back(0);
-        it = index.find(key);
-      }
-      ++size[it->second];
-      plan.game_matchup.push_back(it->second);
-    }
-  }
   plan.totals = TotalsLayout(plan.home_team, plan.away_team, plan.game_matchup, plan.played);
   if (plan.draw_strengths) {
     const std::size_t m = 2 * un;

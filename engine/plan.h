@@ -89,15 +89,14 @@ class Plan {
   int slots = 0;                          // teams, or 2 * teams with overrides
   std::vector<std::uint16_t> final_slot;  // per team: its slot after the last game (postseason)
 
-  // Remaining games, in date order (undated last, in file order).
-  std::vector<std::uint16_t> home_slot, away_slot;
+  // Remaining games, in date order (undated last, in file order). A game's slots and venue
+  // factors (x home edge for the home side) are those of its matchup.
   std::vector<std::uint16_t> home_team, away_team;
-  std::vector<float> home_factor, away_factor;  // venue factor (x home edge for the home side)
-  std::vector<config::DayNumber> day;           // INT32_MAX when not known
-  std::vector<int> game_index;                  // index into Season::games
-  std::vector<Matchup> matchups;                // distinct combinations, in first-game order
-  std::vector<std::uint32_t> game_matchup;      // per remaining game: index into matchups
-  TotalsLayout totals;                          // how the season loop tallies its results
+  std::vector<config::DayNumber> day;       // INT32_MAX when not known
+  std::vector<int> game_index;              // index into Season::games
+  std::vector<Matchup> matchups;            // distinct combinations, in first-game order
+  std::vector<std::uint32_t> game_matchup;  // per remaining game: index into matchups
+  TotalsLayout totals;                      // how the season loop tallies its results
 
   // Teams and groups.
   std::vector<std::string> team_ids;

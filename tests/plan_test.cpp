@@ -76,9 +76,10 @@ TEST_CASE("remaining games in date order, undated last; venue and home factors")
   CHECK(p.game_index == std::vector<int>{3, 4, 1, 2});
   CHECK(p.home_team[0] == 0);
   CHECK(p.away_team[0] == 6);
-  CHECK(p.home_factor[0] == Approx(1.10 * 1.05).epsilon(1e-6));  // venue x home edge
-  CHECK(p.away_factor[0] == Approx(1.10).epsilon(1e-6));
-  CHECK(p.away_factor[1] == Approx(1.0).epsilon(1e-6));  // day 5: at team 7 (factor 1.0)
+  const auto matchup = [&](std::size_t g) { return p.matchups[p.game_matchup[g]]; };
+  CHECK(matchup(0).home_factor == Approx(1.10 * 1.05).epsilon(1e-6));  // venue x home edge
+  CHECK(matchup(0).away_factor == Approx(1.10).epsilon(1e-6));
+  CHECK(matchup(1).away_factor == Approx(1.0).epsilon(1e-6));  // day 5: at team 7 (factor 1.0)
   CHECK(p.played.wins(0) == 1);
   CHECK(p.played.losses(1) == 1);
   CHECK(p.max_games == 3);  // team 0: one played game and two left
@@ -114,8 +115,8 @@ TEST_CASE("overrides switch a team to its second slot from their date on") {
   s.overrides.push_back(o);
   const Plan p = compile_plan(s, ratings(8));
   REQUIRE(p.slots == 16);
-  CHECK(p.home_slot[0] == 0);      // day 3: before the override
-  CHECK(p.away_slot[1] == 0 + 8);  // day 5: team 0 away, override in force
+  CHECK(p.matchups[p.game_matchup[0]].home_slot == 0);      // day 3: before the override
+  CHECK(p.matchups[p.game_matchup[1]].away_slot == 0 + 8);  // day 5: team 0 away, override on
   CHECK(p.overrides[0].offence == Approx(6.6 / 4.4));
   CHECK(p.final_slot[0] == 8);
   CHECK(p.final_slot[1] == 1);
@@ -137,11 +138,13 @@ TEST_CASE("matchups group games with the same slots and factors, at most 2047 ga
   REQUIRE(p.game_matchup.size() == 4104);
   std::vector<int> size(p.matchups.size(), 0);
   for (std::size_t g = 0; g < p.remaining_games(); ++g) {
+    // No overrides: a side's slot is its team; the venue is the home team's (team 0: 1.10).
     const Matchup& m = p.matchups[p.game_matchup[g]];
-    REQUIRE(m.home_slot == p.home_slot[g]);
-    REQUIRE(m.away_slot == p.away_slot[g]);
-    REQUIRE(m.home_factor == p.home_factor[g]);
-    REQUIRE(m.away_factor == p.away_factor[g]);
+    REQUIRE(m.home_slot == p.home_team[g]);
+    REQUIRE(m.away_slot == p.away_team[g]);
+    const float rf = p.home_team[g] == 0 ? 1.10f : 1.0f;
+    REQUIRE(m.home_factor == Approx(rf * 1.05).epsilon(1e-6));
+    REQUIRE(m.away_factor == Approx(rf).epsilon(1e-6));
     ++size[p.game_matchup[g]];
   }
   REQUIRE(p.matchups.size() == 6);
