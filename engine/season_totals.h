@@ -100,12 +100,6 @@ class SeasonTotals {
   };
   Sink sink() { return Sink{word_.data(), home_won_.data()}; }
 
-  // One game at a time (tests; the engine's loop uses sink()).
-  void add(std::size_t g, std::uint32_t group, std::uint32_t home_won, std::uint32_t home_runs,
-           std::uint32_t away_runs) {
-    sink().add(g, group, home_won, home_runs, away_runs);
-  }
-
   // Adds the season's games to `record`, which holds the layout's base record. The last-games
   // windows are deferred (SeasonRecord::defer_windows): this object must stay unchanged until
   // the record is done with or copied.

@@ -38,6 +38,8 @@ void require_same(const SeasonRecord& a, const SeasonRecord& b) {
 }  // namespace
 
 TEST_CASE("season totals added in bulk equal add_result game by game") {
+  // Tied games go through add_extra as in the engine (a home loss at the tied score, then the
+  // extra innings' runs and winner).
   // 7 teams in 3 divisions and 2 conferences, three window scopes (one longer than some teams'
   // remaining games in scope, so played results stay in it), a few played games first.
   const std::vector<int> div{1, 1, 2, 2, 3, 3, 3};
@@ -76,15 +78,23 @@ TEST_CASE("season totals added in bulk equal add_result game by game") {
     SeasonTotals totals(layout);
     for (int season = 0; season < 3; ++season) {  // the same totals reused after clear()
       totals.clear();
+      const SeasonTotals::Sink sink = totals.sink();
       SeasonRecord one = base;
       for (int g = 0; g < count; ++g) {
         const auto h = home[static_cast<std::size_t>(g)], a = away[static_cast<std::size_t>(g)];
-        const auto hr = static_cast<std::uint32_t>(next() % 12);
+        const auto gi = static_cast<std::size_t>(g);
+        auto hr = static_cast<std::uint32_t>(next() % 12);
         auto ar = static_cast<std::uint32_t>(next() % 12);
-        if (ar == hr) ++ar;
-        const std::uint32_t home_won = hr > ar;
-        totals.add(static_cast<std::size_t>(g), group[static_cast<std::size_t>(g)], home_won, hr,
-                   ar);
+        std::uint32_t home_won = hr > ar;
+        sink.add(gi, group[gi], home_won, hr, ar);
+        if (hr == ar) {  // tallied as a home loss, then settled the way the engine settles ties
+          home_won = static_cast<std::uint32_t>(next() % 2);
+          const auto more = static_cast<std::uint32_t>(next() % 3);  // extra runs of both
+          const std::uint32_t extra_home = more + home_won, extra_away = more + 1 - home_won;
+          sink.add_extra(gi, group[gi], home_won, extra_home, extra_away);
+          hr += extra_home;
+          ar += extra_away;
+        }
         if (home_won)
           one.add_result(h, a, static_cast<int>(hr), static_cast<int>(ar));
         else
