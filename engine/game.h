@@ -208,7 +208,10 @@ class GameEngine {
     s.home_chance = extra_.scoring_chance(home_mean);
     s.away_chance = extra_.scoring_chance(away_mean);
   }
+  // The largest regulation score of any family: Weibull scales are capped for it, and count
+  // draws never exceed CountTable::MAX_SCORE. The season loop relies on it (no clamp).
   static constexpr int max_regulation_runs() { return 16383; }
+  static_assert(CountTable::MAX_SCORE <= 16383, "count draws must stay within the bound");
 
   // One game: both regulation scores, then extra innings from a tie (score families); log5: the
   // winner only, no runs. `cap`: false plays extra innings to a decision (postseason).

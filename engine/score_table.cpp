@@ -98,8 +98,9 @@ CountTable::CountTable(CountFamily family, double size) : family_(family), size_
     double c = 0;
     for (int k = 0;; ++k) {
       c += pmf(k, mean);
-      // The last entry of a row is 1 so the search always stops inside the row.
-      if (1.0 - c < 1e-13 || k > 2000) {
+      // The last entry of a row is 1 so the search always stops inside the row; the last index
+      // (the largest draw) is at most MAX_SCORE.
+      if (1.0 - c < 1e-13 || k >= MAX_SCORE) {
         cdf_.push_back(1.0);
         break;
       }

@@ -140,6 +140,7 @@ class CountTable {
  public:
   static constexpr double MEAN_STEP = 1.0 / 16.0;
   static constexpr double MAX_MEAN = 40.0;
+  static constexpr int MAX_SCORE = 2000;  // no draw is larger
 
   CountTable() = default;
   // size: negative-binomial size r (ignored for Poisson).

@@ -239,10 +239,6 @@ class SeasonRunner {
           a = counts.score(rng(), p.away);
         }
         home_won = h > a;
-        if constexpr (M != GameModel::kWeibull) {  // Weibull scores are bounded by sides()
-          h = std::min(h, GameEngine::max_regulation_runs());
-          a = std::min(a, GameEngine::max_regulation_runs());
-        }
         hr = static_cast<std::uint32_t>(h);
         ar = static_cast<std::uint32_t>(a);
         ties[tied] = static_cast<std::uint32_t>(g);
