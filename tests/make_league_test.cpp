@@ -173,32 +173,56 @@ TEST_CASE("the demo scenario loads cleanly and keeps the schedule rules") {
   const fs::path dir = fs::path(STANDFAST_SOURCE_DIR) / "scenarios" / "demo";
   const Season s = standfast::config::load_season(dir / "season.yaml");
   REQUIRE(s.warnings.empty());
-  REQUIRE(s.teams.size() == 30);
-  REQUIRE(s.conferences.size() == 2);
-  REQUIRE(s.divisions.size() == 6);
-  REQUIRE(s.games.size() == 30 * 162 / 2);
+  REQUIRE(s.teams.size() == 32);
+  REQUIRE(s.conferences.size() == 4);
+  REQUIRE(s.divisions.size() == 8);
+  REQUIRE(s.games.size() == 32 * 154 / 2);
   const Schedule t = tally(s);
   for (std::size_t i = 0; i < s.teams.size(); ++i) {
     INFO(s.teams[i].id);
-    REQUIRE(t.games[i] == 162);
-    REQUIRE(t.home[i] == 81);
+    REQUIRE(t.games[i] == 154);
+    REQUIRE(t.home[i] == 77);
     REQUIRE(s.teams[i].run_factor >= 0.92);
     REQUIRE(s.teams[i].run_factor <= 1.10);
+  }
+  // Games per pair of clubs as scenarios/README.md states them: 14 within the division, 10
+  // against the other division of the conference, 3 against every club of the other
+  // conferences; half of the division and conference games at each park.
+  {
+    const std::size_t n = s.teams.size();
+    std::vector<int> meet(n * n, 0);
+    for (const auto& g : s.games) {
+      ++meet[static_cast<std::size_t>(g.home) * n + static_cast<std::size_t>(g.away)];
+    }
+    for (std::size_t i = 0; i < n; ++i) {
+      for (std::size_t j = i + 1; j < n; ++j) {
+        INFO(s.teams[i].id << " - " << s.teams[j].id);
+        const int ij = meet[i * n + j], ji = meet[j * n + i];
+        if (s.teams[i].division == s.teams[j].division) {
+          CHECK((ij == 7 && ji == 7));
+        } else if (s.teams[i].conference == s.teams[j].conference) {
+          CHECK((ij == 5 && ji == 5));
+        } else {
+          CHECK(ij + ji == 3);
+          CHECK((ij == 0 || ji == 0));
+        }
+      }
+    }
   }
   REQUIRE(t.one_game_a_day);
   REQUIRE(t.played >= 0.45 * s.games.size());
   REQUIRE(t.played <= 0.55 * s.games.size());
   REQUIRE(t.postponed >= 1);
   REQUIRE(t.doubleheaders >= 1);
-  // Season length: first to last date within 180 to 190 days.
+  // Season length: first to last date within 170 to 182 days.
   int first = 1 << 30, last = -(1 << 30);
   for (const auto& g : s.games) {
     if (!g.date) continue;
     first = std::min(first, *g.date);
     last = std::max(last, *g.date);
   }
-  REQUIRE(last - first + 1 >= 180);
-  REQUIRE(last - first + 1 <= 190);
+  REQUIRE(last - first + 1 >= 170);
+  REQUIRE(last - first + 1 <= 182);
 }
 
 TEST_CASE("the truth files list every club with centred strengths") {
@@ -315,7 +339,7 @@ TEST_CASE("--outcomes writes the whole season, agreeing with the played games") 
       REQUIRE(line.substr(cut, 1) != ",");  // every game has scores
     }
   }
-  REQUIRE(full.size() == 30 * 162 / 2);
+  REQUIRE(full.size() == 32 * 154 / 2);
   std::stringstream in(read_file(out / "games.csv"));
   std::string line;
   std::getline(in, line);

@@ -14,8 +14,8 @@ struct ClubName {
   std::string_view venue;
 };
 
-// Thirty clubs for the demo league, in the order they fill the divisions.
-inline constexpr std::array<ClubName, 30> DEMO_CLUBS = {{
+// Thirty-two clubs for the demo league, in the order they fill the divisions.
+inline constexpr std::array<ClubName, 32> DEMO_CLUBS = {{
     {"AMB", "Amberlow Comets", "Comet Ridge Park"},
     {"BRK", "Brackenvane Owls", "Vane Street Grounds"},
     {"CRV", "Corvane Ironbacks", "Foundry Park"},
@@ -46,6 +46,8 @@ inline constexpr std::array<ClubName, 30> DEMO_CLUBS = {{
     {"FRM", "Frostmere Huskies", "Icehouse Park"},
     {"GRW", "Graywick Tanners", "Tannery Row Park"},
     {"RVL", "Rivelmark Quarrymen", "The Quarry Bowl"},
+    {"LUM", "Lumenford Gleaners", "Gleaning Field"},
+    {"TEM", "Tembrook Ferrymen", "Ferry Landing Park"},
 }};
 
 // Six clubs for the small league.

@@ -1,4 +1,4 @@
-// The two invented leagues the generator knows (demo: 30 clubs, small: 6 clubs), their
+// The two invented leagues the generator knows (demo: 32 clubs, small: 6 clubs), their
 // games per pair of clubs, and the hidden true strengths of their clubs.
 #ifndef STANDFAST_TOOLS_BIN_LEAGUE_SHAPES_H
 #define STANDFAST_TOOLS_BIN_LEAGUE_SHAPES_H
@@ -53,35 +53,37 @@ inline std::vector<Club> clubs_from(const std::array<standfast::tools::names::Cl
   return out;
 }
 
-// 30 clubs, 2 conferences x 3 divisions x 5. Per club: 13 games against each of the 4 division
-// rivals (52), 7 against 4 and 6 against 6 of the other conference clubs (64), 3 against 14
-// clubs of the other conference and 4 against one paired rival there (46): 162 games, 81 home.
+// 32 clubs, 4 conferences x 2 divisions x 4 (the project's own format). Per club: 14 games
+// against each of the 3 division rivals (42), 10 against each of the 4 clubs of the other
+// division of its conference (40) and one 3-game series against each of the 24 clubs of the
+// other conferences (72): 154 games, 77 at home.
 inline League make_demo() {
   League lg;
-  lg.name = "Tallwater Baseball League";
-  lg.season_label = "Season 12";
+  lg.name = "Stonereach Baseball Union";
+  lg.season_label = "Season 8";
   lg.clubs = clubs_from(standfast::tools::names::DEMO_CLUBS);
-  lg.games_per_team = 162;
-  lg.opening_day = *parse_date("2047-04-04");
-  lg.target_days = 186;
-  lg.min_days = 180;
-  lg.max_days = 190;
-  lg.break_start = 98;
+  lg.games_per_team = 154;
+  lg.opening_day = *parse_date("2053-04-09");
+  lg.target_days = 176;
+  lg.min_days = 170;
+  lg.max_days = 182;
+  lg.break_start = 94;
   lg.break_length = 4;
   lg.doubleheaders = 6;
   lg.postponements = 5;
   lg.runner_on_second = true;
-  const char* conf_ids[2] = {"meridian", "lantern"};
-  const char* conf_names[2] = {"Meridian Conference", "Lantern Conference"};
-  const char* div_ids[3] = {"north", "central", "south"};
-  const char* div_names[3] = {"North Division", "Central Division", "South Division"};
-  for (int c = 0; c < 2; ++c) {
-    Conference conf{conf_ids[c], conf_names[c], {}};
-    for (int v = 0; v < 3; ++v) {
+  constexpr int CONFERENCES = 4, DIVISIONS = 2, SIZE = 4, PER_CONFERENCE = DIVISIONS * SIZE;
+  const char* conf_ids[CONFERENCES] = {"meridian", "lantern", "cinder", "tideway"};
+  const char* conf_names[CONFERENCES] = {"Meridian", "Lantern", "Cinder", "Tideway"};
+  const char* div_ids[DIVISIONS] = {"hill", "vale"};
+  const char* div_names[DIVISIONS] = {"Hill", "Vale"};
+  for (int c = 0; c < CONFERENCES; ++c) {
+    Conference conf{conf_ids[c], fmt::format("{} Conference", conf_names[c]), {}};
+    for (int v = 0; v < DIVISIONS; ++v) {
       Division d{fmt::format("{}-{}", conf_ids[c], div_ids[v]),
-                 fmt::format("{} {}", c == 0 ? "Meridian" : "Lantern", div_names[v]),
+                 fmt::format("{} {} Division", conf_names[c], div_names[v]),
                  {}};
-      for (int s = 0; s < 5; ++s) d.clubs.push_back(c * 15 + v * 5 + s);
+      for (int s = 0; s < SIZE; ++s) d.clubs.push_back(c * PER_CONFERENCE + v * SIZE + s);
       conf.divisions.push_back(d);
     }
     lg.conferences.push_back(conf);
@@ -92,37 +94,20 @@ inline League make_demo() {
   for (int i = 0; i < n; ++i) {
     for (int j = 0; j < n; ++j) {
       if (i == j) continue;
-      const int ci = i / 15, cj = j / 15, vi = (i % 15) / 5, vj = (j % 15) / 5;
-      const int si = i % 5, sj = j % 5;
+      const int ci = i / PER_CONFERENCE, cj = j / PER_CONFERENCE;
+      const int vi = (i % PER_CONFERENCE) / SIZE, vj = (j % PER_CONFERENCE) / SIZE;
       if (ci == cj && vi == vj) {
-        // 13 games: 7 at the club for which the rival is 1 or 2 slots ahead (mod 5).
-        const int d = mod(sj - si, 5);
-        lg.at(i, j) = (d == 1 || d == 2) ? 7 : 6;
+        lg.at(i, j) = 7;  // 14 games, 7 at each park
       } else if (ci == cj) {
-        // Divisions v < w: slot s of v meets slots s and s+1 of w seven times (a 10-cycle),
-        // the other three six times. Seven-game pairs alternate the extra home game round the
-        // cycle: v_s hosts 4 against w_s, w_{s+1} hosts 4 against v_s.
-        const bool i_low = vi < vj;
-        const int sv = i_low ? si : sj, sw = i_low ? sj : si;
-        const int d = mod(sw - sv, 5);
-        if (d == 0) {
-          lg.at(i, j) = i_low ? 4 : 3;
-        } else if (d == 1) {
-          lg.at(i, j) = i_low ? 3 : 4;
-        } else {
-          lg.at(i, j) = 3;
-        }
+        lg.at(i, j) = 5;  // 10 games, 5 at each park
       } else {
-        // Other conference: position p in 0..14; p == q is the paired rival (2 + 2), the rest
-        // are one three-game series, hosted by conference 0 when (q - p) mod 15 is 1..7.
-        const int p = i % 15, q = j % 15;
-        if (p == q) {
-          lg.at(i, j) = 2;
-        } else {
-          const int d = ci == 0 ? mod(q - p, 15) : mod(p - q, 15);
-          const bool zero_hosts = d >= 1 && d <= 7;
-          lg.at(i, j) = (zero_hosts == (ci == 0)) ? 3 : 0;
-        }
+        // Other conferences: one 3-game series. For conferences a < b, the club at position p
+        // (0..7) of a hosts the club at position q of b when (q - p) mod 8 is 0..3, so every
+        // club hosts 4 of the 8 clubs of each other conference.
+        const int p = i % PER_CONFERENCE, q = j % PER_CONFERENCE;
+        const int d = ci < cj ? mod(q - p, PER_CONFERENCE) : mod(p - q, PER_CONFERENCE);
+        const bool lower_hosts = d < PER_CONFERENCE / 2;
+        lg.at(i, j) = (lower_hosts == (ci < cj)) ? 3 : 0;
       }
     }
   }

@@ -85,24 +85,24 @@ inline std::string demo_rules_yaml() {
 postseason:
   format: conference_brackets
   qualify:
-    division_winners: 3
-    at_large: 3
-    byes: 2
+    division_winners: 2
+    at_large: 1
+    byes: 1
     winners_first: true
-  reseed: true
+  reseed: false
   rounds:
-    - {name: First round, best_of: 3, hosts: [3]}
-    - {name: Second round, best_of: 5, hosts: [2, 2, 1]}
-    - {name: Conference final, best_of: 7, hosts: [2, 3, 2]}
-    - {name: League final, best_of: 7, hosts: [2, 3, 2]}
+    - {name: Wild-card series, best_of: 3, hosts: [1, 1, 1]}
+    - {name: Conference final, best_of: 5, hosts: [1, 1, 1, 1, 1]}
+    - {name: Semifinal, best_of: 7, hosts: [3, 3, 1]}
+    - {name: Union final, best_of: 9, hosts: [2, 2, 2, 2, 1]}
 
 tiebreakers:
   order:
     - head_to_head
     - division_record
     - conference_record
+    - {last_games: 24, within: league}
     - run_differential
-    - {last_games: 20, within: conference}
     - draw
   extra_game: false
 

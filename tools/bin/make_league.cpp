@@ -117,7 +117,7 @@ int main(int argc, char** argv) {
   std::string out_dir;
   double fraction = 0.5;
   bool outcomes = false;
-  app.add_option("--shape", shape, "small (6 clubs, games inline) or demo (30 clubs)")
+  app.add_option("--shape", shape, "small (6 clubs, games inline) or demo (32 clubs)")
       ->check(CLI::IsMember({"small", "demo"}));
   app.add_option("--seed", seed, "random seed");
   app.add_option("--out", out_dir, "output folder (created if missing)")->required();
