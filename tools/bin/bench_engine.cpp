@@ -2,7 +2,7 @@
 //
 //   bench_engine [--season FILE] [--seasons N] [--seed S] [--full]
 //
-// Loads the season (default scenarios/demo/season.yaml: the invented 30-team demo league at
+// Loads the season (default scenarios/demo/season.yaml: the invented 32-team demo league at
 // midseason), fits the ratings, compiles the plan and prints:
 //   - the full engine (strength draws, every remaining game with extra innings, standings,
 //     tiebreakers, seeding, the postseason bracket, tallies) on 1 and on 2 threads: seasons per

@@ -5,9 +5,10 @@
 //
 // With a season file (default scenarios/demo/season.yaml when it exists) the league and its
 // played games come from the file and K simulated season-ends are made by adding random
-// results for its remaining games. Without one, a synthetic 30-team league (2 conferences x 3
-// divisions x 5 teams, 3 division winners + 3 at-large per conference) with short records and
-// many ties is used. Prints rankings per second and nanoseconds per ranking on one core.
+// results for its remaining games. Without one, a synthetic 32-team league shaped like the demo
+// (4 conferences x 2 divisions x 4 teams, 2 division winners + 1 at-large per conference) with
+// short records and many ties is used. Prints rankings per second and nanoseconds per ranking
+// on one core.
 #include <fmt/core.h>
 
 #include <CLI/CLI.hpp>
@@ -33,15 +34,15 @@ using namespace standfast;
 config::Season synthetic_league() {
   config::Season s;
   s.file = "(synthetic)";
-  const char* conf_ids[] = {"north", "south"};
-  for (int c = 0; c < 2; ++c) {
+  const char* conf_ids[] = {"north", "south", "east", "west"};
+  for (int c = 0; c < 4; ++c) {
     config::Group conf;
     conf.id = conf_ids[c];
     conf.name = conf.id;
     s.groups.push_back(conf);
     const int ci = static_cast<int>(s.groups.size()) - 1;
     s.conferences.push_back(ci);
-    for (int d = 0; d < 3; ++d) {
+    for (int d = 0; d < 2; ++d) {
       config::Group div;
       div.id = fmt::format("{}-{}", conf.id, d);
       div.name = div.id;
@@ -50,7 +51,7 @@ config::Season synthetic_league() {
       const int di = static_cast<int>(s.groups.size()) - 1;
       s.groups[ci].children.push_back(di);
       s.divisions.push_back(di);
-      for (int t = 0; t < 5; ++t) {
+      for (int t = 0; t < 4; ++t) {
         config::Team team;
         team.id = fmt::format("T{}{}{}", c, d, t);
         team.name = team.id;
@@ -62,9 +63,9 @@ config::Season synthetic_league() {
     }
     config::Qualifying q;
     q.conference = ci;
-    q.division_winners = 3;
-    q.at_large = 3;
-    q.byes = 2;
+    q.division_winners = 2;
+    q.at_large = 1;
+    q.byes = 1;
     s.postseason.qualifying.push_back(q);
   }
   s.postseason.enabled = true;
