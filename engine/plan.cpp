@@ -171,16 +171,17 @@ Plan compile_plan(const config::Season& season, const models::LeagueRatings& rat
     any_se = any_se || r.log_offence_se > 0 || r.log_defence_se > 0;
   }
   if (season.model.strength_uncertainty && plan.model != GameModel::kLog5) {
-    if (ratings.cholesky.size() == 4 * un * un) {
-      plan.cholesky = ratings.cholesky;
-      plan.draw_strengths =
-          std::any_of(plan.cholesky.begin(), plan.cholesky.end(), [](double v) { return v != 0; });
-    } else if (any_se) {  // no covariance: independent draws from the standard errors
-      plan.cholesky.assign(4 * un * un, 0.0);
+    if (!ratings.strengths.empty()) {
+      if (ratings.strengths.teams != n) fail("strength sampler for a different number of teams");
+      plan.strengths = ratings.strengths;
+      plan.draw_strengths = true;
+    } else if (any_se) {  // no joint uncertainty: independent draws from the standard errors
+      std::vector<double> so(un), sd(un);
       for (std::size_t t = 0; t < un; ++t) {
-        plan.cholesky[t * 2 * un + t] = ratings.teams[t].log_offence_se;
-        plan.cholesky[(un + t) * 2 * un + un + t] = ratings.teams[t].log_defence_se;
+        so[t] = ratings.teams[t].log_offence_se;
+        sd[t] = ratings.teams[t].log_defence_se;
       }
+      plan.strengths = models::diagonal_sampler(so, sd);
       plan.draw_strengths = true;
     }
   }
@@ -297,12 +298,6 @@ Plan compile_plan(const config::Season& season, const models::LeagueRatings& rat
         static_cast<std::uint16_t>(has[static_cast<std::size_t>(t)] ? t + n : t));
   plan.played = played_record(season);
   plan.totals = TotalsLayout(plan.home_team, plan.away_team, plan.game_matchup, plan.played);
-  if (plan.draw_strengths) {
-    const std::size_t m = 2 * un;
-    plan.cholesky_columns.reserve(m * (m + 1) / 2);
-    for (std::size_t j = 0; j < m; ++j)
-      for (std::size_t i = j; i < m; ++i) plan.cholesky_columns.push_back(plan.cholesky[i * m + j]);
-  }
   plan.seeder = Seeder(season);
   compile_postseason(season, plan);
   return plan;

@@ -12,6 +12,7 @@
 #include "engine/season_record.h"
 #include "engine/season_totals.h"
 #include "engine/seeding.h"
+#include "models/strength_sampler.h"
 
 namespace standfast::models {
 struct LeagueRatings;
@@ -74,13 +75,10 @@ class Plan {
   int regulation_innings = 9;
   config::ExtraInningsRule extra_innings;
 
-  // Strengths: point estimates of the logs of the offence and defence multipliers, and the lower
-  // Cholesky factor (row-major, 2n x 2n, offences first) of their covariance; cholesky_columns
-  // holds the same factor column by column (column j: rows j..2n-1), the order the season's
-  // draw reads it in.
+  // Strengths: point estimates of the logs of the offence and defence multipliers, and the
+  // sampler of their joint uncertainty (a sparse factor of the precision matrix).
   std::vector<double> log_offence, log_defence;
-  std::vector<double> cholesky;
-  std::vector<double> cholesky_columns;
+  models::StrengthSampler strengths;
   bool draw_strengths = false;
   std::vector<double> win_pct;  // log5 strengths (per team), from overrides or ratings
 

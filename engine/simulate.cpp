@@ -34,7 +34,7 @@ static_assert(GameEngine::max_regulation_runs() <= TotalsLayout::MAX_RUNS / 2);
 // Per-thread working space and tallies. Holds no random state.
 struct Worker {
   std::vector<double> off, def, odds;   // per slot: league mean x offence, defence, log5 odds
-  std::vector<double> z, x;             // normal draws and correlated log deviations
+  std::vector<double> z, x, work;       // normal draws, correlated log deviations, scratch
   std::vector<Sides> matchup;           // per matchup of the plan, for the season's strengths
   std::vector<std::uint32_t> ties;      // remaining games tied after regulation (this season)
   std::vector<std::uint32_t> tie_open;  // scratch of ExtraInnings::play_all
@@ -54,8 +54,9 @@ struct Worker {
       : off(static_cast<std::size_t>(plan.slots)),
         def(static_cast<std::size_t>(plan.slots)),
         odds(static_cast<std::size_t>(plan.slots)),
-        z(2 * static_cast<std::size_t>(plan.teams)),
+        z(plan.strengths.normals()),
         x(2 * static_cast<std::size_t>(plan.teams)),
+        work(plan.strengths.work_size()),
         matchup(plan.matchups.size()),
         ties(plan.remaining_games()),
         tie_open(plan.remaining_games()),
@@ -136,19 +137,8 @@ class SeasonRunner {
   void draw_strengths(Rng& rng, Worker& w) const {
     const auto n = static_cast<std::size_t>(plan_.teams);
     if (plan_.draw_strengths) {
-      const std::size_t m = 2 * n;
-      standard_normals(rng, w.z.data(), m);
-      // x = L z column by column: each x[i] sums its terms in the order j = 0..i, as a row-wise
-      // product would, but the inner loop runs over contiguous memory without a dependency
-      // chain, so the compiler vectorises it.
-      double* x = w.x.data();
-      std::fill(x, x + m, 0.0);
-      const double* col = plan_.cholesky_columns.data();
-      for (std::size_t j = 0; j < m; ++j) {
-        const double zj = w.z[j];
-        for (std::size_t i = j; i < m; ++i) x[i] += col[i - j] * zj;
-        col += m - j;
-      }
+      standard_normals(rng, w.z.data(), w.z.size());
+      plan_.strengths.draw(w.z.data(), w.work.data(), w.x.data());
     } else {
       std::fill(w.x.begin(), w.x.end(), 0.0);
     }

@@ -2,19 +2,21 @@
 
 #include <fmt/core.h>
 
+#include <Eigen/SparseCholesky>
+#include <Eigen/SparseCore>
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <cstdint>
 #include <limits>
 #include <stdexcept>
 
-#include "models/optimize.h"
 #include "models/score_dist.h"
 
 namespace standfast::models {
 
 double JointFit::se(int i) const {
-  if (covariance.empty()) return 0.0;
+  if (variance.empty()) return 0.0;
   return std::sqrt(std::max(0.0, var(i)));
 }
 
@@ -25,136 +27,366 @@ double JointFit::eta(const Side& s) const {
 
 namespace {
 
-// Full parameters phi = (log M, log H, a_0..a_{n-1}, b_0..b_{n-1}) (P = 2n + 2); reduced
-// theta = (log M, log H, a_0..a_{n-2}, b_0..b_{n-2}) (p = 2n) with a_{n-1} = -sum a_j and
-// b_{n-1} = -sum b_j.
+using SparseMatrix = Eigen::SparseMatrix<double>;
+using Factor = Eigen::SimplicialLLT<SparseMatrix, Eigen::Lower, Eigen::AMDOrdering<int>>;
+
+// Free parameters in corner form: x = (log M', [log H], a'_0..a'_{n-2}, b'_0..b'_{n-2},
+// [log shape]) with a'_{n-1} = b'_{n-1} = 0. The sum-to-zero parameters of JointFit are
+// a_i = a'_i - mean(a'), b_i = b'_i - mean(b'), log M = log M' + mean(a') + mean(b'): the same
+// likelihood, and the prior sum a_i^2 = a'^T (I - 1 1^T / n) a' is a sparse diagonal minus a
+// rank-one term per rating set.
+struct Layout {
+  int n = 0, q = 0;
+  int home = -1, shape = -1;  // -1 = fixed
+  std::vector<int> off, def;  // -1 = the reference club (fixed at 0)
+
+  Layout(int teams, bool home_free, bool shape_free) : n(teams), off(teams, -1), def(teams, -1) {
+    int k = 1;  // 0 = log M'
+    if (home_free) home = k++;
+    for (int i = 0; i < n - 1; ++i) off[i] = k++;
+    for (int i = 0; i < n - 1; ++i) def[i] = k++;
+    if (shape_free) shape = k++;
+    q = k;
+  }
+  int first_rating() const { return home < 0 ? 1 : 2; }
+  // Free indexes of the a' block are [first_rating, first_rating + n - 1), then the b' block.
+};
+
+// The negative log-posterior in corner form and its derivatives. The Hessian is returned as
+// sparse S plus the dense part -U U^T (U = sqrt(lambda / n) [1_a 1_b], only with a prior).
 class Problem {
  public:
-  Problem(const std::vector<Side>& sides, int n, const JointOptions& o)
-      : sides_(sides), n_(n), opt_(o) {}
-
-  int reduced() const { return 2 * n_; }
-  int full() const { return 2 * n_ + 2; }
-
-  std::vector<double> expand(const std::vector<double>& theta) const {
-    std::vector<double> phi(full());
-    phi[0] = theta[0];
-    phi[1] = theta[1];
-    double sa = 0.0, sb = 0.0;
-    for (int j = 0; j < n_ - 1; ++j) {
-      phi[2 + j] = theta[2 + j];
-      phi[2 + n_ + j] = theta[2 + n_ - 1 + j];
-      sa += theta[2 + j];
-      sb += theta[2 + n_ - 1 + j];
-    }
-    phi[2 + n_ - 1] = -sa;
-    phi[2 + 2 * n_ - 1] = -sb;
-    return phi;
-  }
-
-  // J: d phi / d theta (P x p).
-  std::vector<double> jacobian() const {
-    const int P = full(), p = reduced();
-    std::vector<double> j(static_cast<size_t>(P) * p, 0.0);
-    j[0 * p + 0] = 1.0;
-    j[1 * p + 1] = 1.0;
-    for (int t = 0; t < n_ - 1; ++t) {
-      j[(2 + t) * p + 2 + t] = 1.0;
-      j[(2 + n_ - 1) * p + 2 + t] = -1.0;
-      j[(2 + n_ + t) * p + 2 + n_ - 1 + t] = 1.0;
-      j[(2 + 2 * n_ - 1) * p + 2 + n_ - 1 + t] = -1.0;
-    }
-    return j;
-  }
-
-  // Negative log-posterior at theta and shape; gradient and Hessian in theta when asked.
-  // `loglik` receives the log-likelihood without the prior.
-  double value(const std::vector<double>& theta, double shape, std::vector<double>* grad,
-               std::vector<double>* hess, double* loglik = nullptr) const {
-    const std::vector<double> phi = expand(theta);
-    const int P = full();
-    std::vector<double> gf, hf;
-    if (grad) gf.assign(P, 0.0);
-    if (hess) hf.assign(static_cast<size_t>(P) * P, 0.0);
-    double ll = 0.0;
-    int idx[4];
+  Problem(const std::vector<Side>& sides, const Layout& layout, const JointOptions& o,
+          double fixed_shape, double lo, double hi)
+      : sides_(sides), l_(layout), opt_(o), fixed_shape_(fixed_shape), lo_(lo), hi_(hi) {
+    fixed_home_ = o.home_edge ? std::log(*o.home_edge) : 0.0;
+    // Sparsity pattern (lower triangle, every diagonal included), fixed for the whole fit.
+    std::vector<Eigen::Triplet<double>> t;
+    for (int k = 0; k < l_.q; ++k) t.emplace_back(k, k, 0.0);
     for (const Side& s : sides_) {
-      const double eta = phi[0] + phi[2 + s.batting] + phi[2 + n_ + s.fielding] + s.offset +
-                         (s.at_home ? phi[1] : 0.0);
-      const LogLikTerms t = score_loglik(opt_.family, s.y, eta, shape);
+      int idx[5];
+      const int m = indexes(s, idx);
+      for (int a = 0; a < m; ++a)
+        for (int b = 0; b < m; ++b)
+          if (idx[a] > idx[b]) t.emplace_back(idx[a], idx[b], 0.0);
+    }
+    if (l_.shape >= 0)
+      for (int k = 0; k < l_.shape; ++k) t.emplace_back(l_.shape, k, 0.0);
+    pattern_.resize(l_.q, l_.q);
+    pattern_.setFromTriplets(t.begin(), t.end());
+    pattern_.makeCompressed();
+    // Position of each side's entries in the value array.
+    slot_.reserve(sides_.size() * 15);
+    for (const Side& s : sides_) {
+      int idx[5];
+      const int m = indexes(s, idx);
+      for (int a = 0; a < m; ++a)
+        for (int b = 0; b < m; ++b)
+          if (idx[a] >= idx[b]) slot_.push_back(position(idx[a], idx[b]));
+    }
+  }
+
+  int q() const { return l_.q; }
+  const SparseMatrix& pattern() const { return pattern_; }
+  double prior() const { return opt_.prior_precision; }
+  const Layout& layout() const { return l_; }
+
+  double shape_of(const std::vector<double>& x) const {
+    return l_.shape >= 0 ? std::exp(x[l_.shape]) : fixed_shape_;
+  }
+  bool in_bounds(const std::vector<double>& x) const {
+    return l_.shape < 0 || (x[l_.shape] >= lo_ && x[l_.shape] <= hi_);
+  }
+
+  double eta(const std::vector<double>& x, const Side& s) const {
+    const int a = l_.off[s.batting], b = l_.def[s.fielding];
+    return x[0] + (a >= 0 ? x[a] : 0.0) + (b >= 0 ? x[b] : 0.0) + s.offset +
+           (s.at_home ? (l_.home >= 0 ? x[l_.home] : fixed_home_) : 0.0);
+  }
+
+  // Negative log-posterior at x with the given shape; gradient (length q, the shape entry left
+  // 0) and the sparse Hessian values (pattern order, without the shape row) when asked.
+  double value(const std::vector<double>& x, double shape, std::vector<double>* grad,
+               std::vector<double>* hess, double* loglik = nullptr) const {
+    double ll = 0.0;
+    if (grad) grad->assign(l_.q, 0.0);
+    if (hess) hess->assign(pattern_.nonZeros(), 0.0);
+    std::size_t slot = 0;
+    for (const Side& s : sides_) {
+      const LogLikTerms t = score_loglik(opt_.family, s.y, eta(x, s), shape);
       ll += t.value;
       if (!grad && !hess) continue;
-      int m = 0;
-      idx[m++] = 0;
-      idx[m++] = 2 + s.batting;
-      idx[m++] = 2 + n_ + s.fielding;
-      if (s.at_home) idx[m++] = 1;
-      for (int i = 0; i < m; ++i) {
-        if (grad) gf[idx[i]] -= t.d1;
-        if (hess) {
-          for (int k = 0; k < m; ++k) hf[static_cast<size_t>(idx[i]) * P + idx[k]] -= t.d2;
-        }
+      int idx[5];
+      const int m = indexes(s, idx);
+      for (int a = 0; a < m; ++a) {
+        if (grad) (*grad)[idx[a]] -= t.d1;
+        if (!hess) continue;
+        for (int b = 0; b < m; ++b)
+          if (idx[a] >= idx[b]) (*hess)[slot_[slot++]] -= t.d2;
       }
     }
     double prior = 0.0;
-    if (opt_.prior_precision > 0.0) {
-      for (int i = 2; i < P; ++i) {
-        prior += 0.5 * opt_.prior_precision * phi[i] * phi[i];
-        if (grad) gf[i] += opt_.prior_precision * phi[i];
-        if (hess) hf[static_cast<size_t>(i) * P + i] += opt_.prior_precision;
+    const double lambda = opt_.prior_precision;
+    if (lambda > 0.0) {
+      for (const std::vector<int>* set : {&l_.off, &l_.def}) {
+        double mean = 0.0;
+        for (int i = 0; i < l_.n - 1; ++i) mean += x[(*set)[i]];
+        mean /= l_.n;
+        for (int i = 0; i < l_.n; ++i) {
+          const int k = (*set)[i];
+          const double c = (k >= 0 ? x[k] : 0.0) - mean;
+          prior += 0.5 * lambda * c * c;
+          if (k < 0) continue;
+          if (grad) (*grad)[k] += lambda * c;
+          if (hess) (*hess)[position(k, k)] += lambda;
+        }
       }
     }
     if (loglik) *loglik = ll;
-    if (grad || hess) reduce(gf, hf, grad, hess);
     return -ll + prior;
   }
 
-  // g_theta = J^T g_phi, H_theta = J^T H_phi J; a fixed home edge gets a unit row.
-  void reduce(const std::vector<double>& gf, const std::vector<double>& hf,
-              std::vector<double>* grad, std::vector<double>* hess) const {
-    const int P = full(), p = reduced();
-    if (j_.empty()) j_ = jacobian();
-    const bool fixed_home = opt_.home_edge.has_value();
-    if (grad) {
-      grad->assign(p, 0.0);
-      for (int r = 0; r < P; ++r) {
-        if (gf[r] == 0.0) continue;
-        for (int c = 0; c < p; ++c) (*grad)[c] += j_[static_cast<size_t>(r) * p + c] * gf[r];
-      }
-      if (fixed_home) (*grad)[1] = 0.0;
-    }
-    if (hess) {
-      std::vector<double> hj(static_cast<size_t>(P) * p, 0.0);  // H_phi J
-      for (int r = 0; r < P; ++r) {
-        for (int k = 0; k < P; ++k) {
-          const double h = hf[static_cast<size_t>(r) * P + k];
-          if (h == 0.0) continue;
-          for (int c = 0; c < p; ++c)
-            hj[static_cast<size_t>(r) * p + c] += h * j_[static_cast<size_t>(k) * p + c];
-        }
-      }
-      hess->assign(static_cast<size_t>(p) * p, 0.0);
-      for (int k = 0; k < P; ++k) {
-        for (int r = 0; r < p; ++r) {
-          const double jk = j_[static_cast<size_t>(k) * p + r];
-          if (jk == 0.0) continue;
-          for (int c = 0; c < p; ++c)
-            (*hess)[static_cast<size_t>(r) * p + c] += jk * hj[static_cast<size_t>(k) * p + c];
-        }
-      }
-      if (fixed_home) {
-        for (int c = 0; c < p; ++c) (*hess)[1 * p + c] = (*hess)[c * p + 1] = 0.0;
-        (*hess)[1 * p + 1] = 1.0;
-      }
-    }
+  // Value, gradient and Hessian values in x, with the shape derivatives by central differences.
+  double derivatives(const std::vector<double>& x, std::vector<double>& g,
+                     std::vector<double>& h) const {
+    const double shape = shape_of(x);
+    const double f0 = value(x, shape, &g, &h);
+    if (l_.shape < 0) return f0;
+    const double step = 1e-5, s = x[l_.shape];
+    std::vector<double> gp, gm;
+    const double fp = value(x, std::exp(s + step), &gp, nullptr);
+    const double fm = value(x, std::exp(s - step), &gm, nullptr);
+    g[l_.shape] = (fp - fm) / (2.0 * step);
+    for (int k = 0; k < l_.shape; ++k) h[position(l_.shape, k)] = (gp[k] - gm[k]) / (2.0 * step);
+    h[position(l_.shape, l_.shape)] = (fp - 2.0 * f0 + fm) / (step * step);
+    return f0;
+  }
+
+  int position(int r, int c) const {
+    const int* rows = pattern_.innerIndexPtr();
+    const int* begin = rows + pattern_.outerIndexPtr()[c];
+    const int* end = rows + pattern_.outerIndexPtr()[c + 1];
+    return static_cast<int>(std::lower_bound(begin, end, r) - rows);
   }
 
  private:
+  int indexes(const Side& s, int* idx) const {
+    int m = 0;
+    idx[m++] = 0;
+    if (l_.off[s.batting] >= 0) idx[m++] = l_.off[s.batting];
+    if (l_.def[s.fielding] >= 0) idx[m++] = l_.def[s.fielding];
+    if (s.at_home && l_.home >= 0) idx[m++] = l_.home;
+    return m;
+  }
+
   const std::vector<Side>& sides_;
-  int n_;
+  const Layout& l_;
   JointOptions opt_;
-  mutable std::vector<double> j_;
+  double fixed_shape_, lo_, hi_, fixed_home_ = 0.0;
+  SparseMatrix pattern_;
+  std::vector<int> slot_;
 };
+
+// Solves (S - U U^T) x = b for the sparse factor of S and the rank-one prior terms
+// U = sqrt(lambda / n) [1_a 1_b] by the Woodbury identity:
+//   (S - U U^T)^-1 = S^-1 + Y K^-1 Y^T,  Y = S^-1 U,  K = I - U^T Y.
+class Solver {
+ public:
+  Solver(const Problem& p) : p_(p), matrix_(p.pattern()) { factor_.analyzePattern(matrix_); }
+
+  // Factors S + damping I; false when it is not positive definite (nor the Woodbury K).
+  bool factor(const std::vector<double>& hess, double damping) {
+    std::copy(hess.begin(), hess.end(), matrix_.valuePtr());
+    for (int k = 0; k < p_.q(); ++k) matrix_.valuePtr()[p_.position(k, k)] += damping;
+    factor_.factorize(matrix_);
+    if (factor_.info() != Eigen::Success) return false;
+    rank_ = p_.prior() > 0.0 ? 2 : 0;
+    if (rank_ == 0) return true;
+    const Layout& l = p_.layout();
+    const double u = std::sqrt(p_.prior() / l.n);
+    y_.assign(2, Eigen::VectorXd::Zero(p_.q()));
+    for (int set = 0; set < 2; ++set) {
+      Eigen::VectorXd b = Eigen::VectorXd::Zero(p_.q());
+      for (int i = 0; i < l.n - 1; ++i) b[set == 0 ? l.off[i] : l.def[i]] = u;
+      y_[set] = factor_.solve(b);
+    }
+    for (int r = 0; r < 2; ++r)
+      for (int c = 0; c < 2; ++c) k_[r][c] = (r == c ? 1.0 : 0.0) - ut(y_[c])[r];
+    const double det = k_[0][0] * k_[1][1] - k_[0][1] * k_[1][0];
+    if (!(k_[0][0] > 0.0) || !(det > 0.0)) return false;
+    kinv_[0][0] = k_[1][1] / det;
+    kinv_[1][1] = k_[0][0] / det;
+    kinv_[0][1] = kinv_[1][0] = -k_[0][1] / det;
+    return true;
+  }
+
+  Eigen::VectorXd solve(const Eigen::VectorXd& b) const {
+    Eigen::VectorXd x = factor_.solve(b);
+    if (rank_ == 0) return x;
+    const std::array<double, 2> w = ut(x);
+    for (int r = 0; r < 2; ++r) x += (kinv_[r][0] * w[0] + kinv_[r][1] * w[1]) * y_[r];
+    return x;
+  }
+
+  // U^T v.
+  std::array<double, 2> ut(const Eigen::VectorXd& v) const {
+    const Layout& l = p_.layout();
+    std::array<double, 2> s{0.0, 0.0};
+    if (rank_ == 0) return s;
+    for (int i = 0; i < l.n - 1; ++i) {
+      s[0] += v[l.off[i]];
+      s[1] += v[l.def[i]];
+    }
+    const double u = std::sqrt(p_.prior() / l.n);
+    return {u * s[0], u * s[1]};
+  }
+
+  const Factor& sparse() const { return factor_; }
+  int rank() const { return rank_; }
+  const std::vector<Eigen::VectorXd>& y() const { return y_; }
+  const std::array<std::array<double, 2>, 2>& kinv() const { return kinv_; }
+
+ private:
+  const Problem& p_;
+  SparseMatrix matrix_;
+  Factor factor_;
+  int rank_ = 0;
+  std::vector<Eigen::VectorXd> y_;
+  std::array<std::array<double, 2>, 2> k_{}, kinv_{};
+};
+
+struct NewtonOutcome {
+  std::vector<double> x;
+  int iterations = 0;
+  bool converged = false;
+};
+
+// Newton's method with Levenberg damping and a backtracking (Armijo) line search that never
+// accepts an increase, as minimize_newton (models/optimize.h) but with the sparse solver.
+NewtonOutcome newton(const Problem& p, std::vector<double> x, double gradient_tolerance) {
+  const double step_tolerance = 1e-12;
+  const int q = p.q();
+  NewtonOutcome r;
+  std::vector<double> g, h, trial(q);
+  Solver solver(p);
+  auto f = [&](const std::vector<double>& v) {
+    return p.in_bounds(v) ? p.value(v, p.shape_of(v), nullptr, nullptr)
+                          : std::numeric_limits<double>::infinity();
+  };
+  double value = p.derivatives(x, g, h);
+  if (!std::isfinite(value)) throw std::domain_error("fit_joint: likelihood not finite at start");
+  double damping = 0.0;
+  for (r.iterations = 0; r.iterations < 200; ++r.iterations) {
+    double gmax = 0.0, hmax = 0.0;
+    for (double v : g) gmax = std::max(gmax, std::abs(v));
+    if (gmax < gradient_tolerance) {
+      r.converged = true;
+      break;
+    }
+    for (int k = 0; k < q; ++k) hmax = std::max(hmax, std::abs(h[p.position(k, k)]));
+    for (int attempt = 0;; ++attempt) {
+      if (solver.factor(h, damping)) break;
+      damping = std::max(damping * 10.0, 1e-8 * std::max(hmax, 1.0));
+      if (attempt > 60) throw std::domain_error("fit_joint: cannot damp the Hessian");
+    }
+    const Eigen::VectorXd step = -solver.solve(Eigen::Map<const Eigen::VectorXd>(g.data(), q));
+    double slope = 0.0;
+    for (int i = 0; i < q; ++i) slope += g[i] * step[i];
+    double t = 1.0, trial_value = 0.0;
+    bool accepted = false;
+    for (int k = 0; k < 60; ++k) {
+      for (int i = 0; i < q; ++i) trial[i] = x[i] + t * step[i];
+      trial_value = f(trial);
+      if (std::isfinite(trial_value) && trial_value <= value + 1e-4 * t * slope) {
+        accepted = true;
+        break;
+      }
+      t *= 0.5;
+    }
+    double smax = 0.0, xmax = 1.0;
+    for (int i = 0; i < q; ++i) {
+      smax = std::max(smax, std::abs(t * step[i]));
+      xmax = std::max(xmax, std::abs(x[i]));
+    }
+    if (!accepted) {
+      if (smax < 1e3 * step_tolerance * xmax) {
+        r.converged = gmax < 1e3 * gradient_tolerance;
+        break;
+      }
+      damping = std::max(damping * 10.0, 1e-4 * std::max(hmax, 1.0));
+      continue;
+    }
+    x = trial;
+    const double previous = value;
+    value = p.derivatives(x, g, h);
+    damping = t == 1.0 ? damping * 0.1 : damping;
+    if (damping < 1e-12) damping = 0.0;
+    if (smax < step_tolerance * xmax && std::abs(previous - value) <= 1e-15 * std::abs(value)) {
+      r.converged = true;
+      ++r.iterations;
+      break;
+    }
+  }
+  r.x = std::move(x);
+  return r;
+}
+
+// Diagonal of S^-1 from the factor P S P^T = L L^T: (S^-1)_kk = |L^-1 P e_k|^2, each by a
+// forward substitution that starts at k's position.
+std::vector<double> inverse_diagonal(const Factor& factor, int q) {
+  const SparseMatrix l = factor.matrixL();
+  const auto& perm = factor.permutationP().indices();
+  std::vector<double> diag(q), w(q, 0.0);
+  const int* outer = l.outerIndexPtr();
+  const int* inner = l.innerIndexPtr();
+  const double* val = l.valuePtr();
+  for (int k = 0; k < q; ++k) {
+    const int p = perm[k];
+    w[p] = 1.0;
+    double s = 0.0;
+    for (int j = p; j < q; ++j) {
+      if (w[j] == 0.0) continue;
+      const double wj = w[j] / val[outer[j]];  // diagonal first in each column
+      w[j] = 0.0;
+      s += wj * wj;
+      for (int e = outer[j] + 1; e < outer[j + 1]; ++e) w[inner[e]] -= val[e] * wj;
+    }
+    diag[k] = s;
+  }
+  return diag;
+}
+
+// The sampler of (a, b) in sum-to-zero form: latent x = P^T L^-T z + Y R w with
+// R R^T = K^-1, so that cov(x) = S^-1 + Y K^-1 Y^T = (S - U U^T)^-1.
+StrengthSampler make_sampler(const Solver& solver, const Layout& l) {
+  StrengthSampler s;
+  const SparseMatrix lf = solver.sparse().matrixL();
+  const auto& perm = solver.sparse().permutationP().indices();
+  s.teams = l.n;
+  s.dimension = l.q;
+  s.col_start.assign(lf.outerIndexPtr(), lf.outerIndexPtr() + l.q + 1);
+  s.row.assign(lf.innerIndexPtr(), lf.innerIndexPtr() + lf.nonZeros());
+  s.value.assign(lf.valuePtr(), lf.valuePtr() + lf.nonZeros());
+  s.order.assign(l.q, 0);
+  for (int k = 0; k < l.q; ++k) s.order[perm[k]] = k;
+  s.rank = solver.rank();
+  if (s.rank > 0) {
+    const auto& ki = solver.kinv();
+    // R = lower Cholesky factor of K^-1 (2 x 2).
+    const double r00 = std::sqrt(ki[0][0]), r10 = ki[1][0] / r00;
+    const double r11 = std::sqrt(std::max(0.0, ki[1][1] - r10 * r10));
+    s.low_rank.assign(static_cast<std::size_t>(l.q) * 2, 0.0);
+    for (int i = 0; i < l.q; ++i) {
+      s.low_rank[2 * i] = solver.y()[0][i] * r00 + solver.y()[1][i] * r10;
+      s.low_rank[2 * i + 1] = solver.y()[1][i] * r11;
+    }
+  }
+  s.offence = l.off;
+  s.defence = l.def;
+  s.centre = true;
+  s.scale.assign(2 * static_cast<std::size_t>(l.n), 1.0);
+  return s;
+}
 
 bool has_shape(config::ScoreFamily f) { return f != config::ScoreFamily::kPoisson; }
 
@@ -231,12 +463,6 @@ JointFit fit_joint(const std::vector<Side>& sides, int n, const JointOptions& o)
     throw std::domain_error("fit_joint: no home side to fit the home edge; fix home_edge");
   }
 
-  const Problem problem(sides, n, o);
-  const int p = problem.reduced();
-  std::vector<double> theta(p, 0.0);
-  theta[0] = std::log(total / sides.size());
-  theta[1] = o.home_edge ? std::log(*o.home_edge) : 0.0;
-
   JointFit fit;
   fit.teams = n;
   const bool shape_free = has_shape(o.family) && !o.shape;
@@ -245,51 +471,12 @@ JointFit fit_joint(const std::vector<Side>& sides, int n, const JointOptions& o)
   // Search range of log(shape): Weibull gamma in [0.6, 6], negative-binomial size in [0.2, 5000].
   const double lo = o.family == config::ScoreFamily::kWeibull ? std::log(0.6) : std::log(0.2);
   const double hi = o.family == config::ScoreFamily::kWeibull ? std::log(6.0) : std::log(5000.0);
-  const double fd_step = 1e-5;
-  const int q = p + 1;  // (theta, log shape)
+  const Layout layout(n, !o.home_edge, shape_free);
+  const Problem problem(sides, layout, o, fixed_shape, lo, hi);
+  const int q = layout.q;
 
-  // Objective over x = (theta, log shape). The shape derivatives are central differences of the
-  // analytic theta-gradient (cross terms) and of the value (step 1e-5 in log shape).
-  const NewtonObjective objective = [&](const std::vector<double>& x, std::vector<double>* g,
-                                        std::vector<double>* h) {
-    const std::vector<double> theta_x(x.begin(), x.begin() + p);
-    const double s = x[p];
-    if (shape_free && !(s >= lo && s <= hi)) return std::numeric_limits<double>::infinity();
-    const double shape = shape_free ? std::exp(s) : fixed_shape;
-    std::vector<double> gt, ht;
-    const double f0 = problem.value(theta_x, shape, g ? &gt : nullptr, h ? &ht : nullptr);
-    if (!g && !h) return f0;
-    std::vector<double> gp, gm;
-    double fp = 0.0, fm = 0.0;
-    if (shape_free) {
-      fp = problem.value(theta_x, std::exp(s + fd_step), &gp, nullptr);
-      fm = problem.value(theta_x, std::exp(s - fd_step), &gm, nullptr);
-    }
-    if (g) {
-      g->assign(q, 0.0);
-      std::copy(gt.begin(), gt.end(), g->begin());
-      (*g)[p] = shape_free ? (fp - fm) / (2.0 * fd_step) : 0.0;
-    }
-    if (h) {
-      h->assign(static_cast<size_t>(q) * q, 0.0);
-      for (int r = 0; r < p; ++r) {
-        for (int c = 0; c < p; ++c)
-          (*h)[static_cast<size_t>(r) * q + c] = ht[static_cast<size_t>(r) * p + c];
-      }
-      if (shape_free) {
-        for (int r = 0; r < p; ++r) {
-          const double cross = (gp[r] - gm[r]) / (2.0 * fd_step);
-          (*h)[static_cast<size_t>(r) * q + p] = (*h)[static_cast<size_t>(p) * q + r] = cross;
-        }
-        (*h)[static_cast<size_t>(p) * q + p] = (fp - 2.0 * f0 + fm) / (fd_step * fd_step);
-      } else {
-        (*h)[static_cast<size_t>(p) * q + p] = 1.0;
-      }
-    }
-    return f0;
-  };
-
-  std::vector<double> x0(theta);
+  std::vector<double> x0(q, 0.0);
+  x0[0] = std::log(total / sides.size());
   double start_shape = 1.8;
   if (o.family == config::ScoreFamily::kNegativeBinomial) {
     // Moment start: var = mu + mu^2 / r over all sides (team spread makes it a lower bound).
@@ -300,75 +487,89 @@ JointFit fit_joint(const std::vector<Side>& sides, int n, const JointOptions& o)
     v /= sides.size();
     start_shape = v > m * 1.01 ? std::clamp(m * m / (v - m), 0.5, 1000.0) : 1000.0;
   }
-  x0.push_back(shape_free ? std::log(start_shape) : 0.0);
+  if (shape_free) x0[layout.shape] = std::log(start_shape);
   if (o.start != nullptr && o.start->teams == n) {
-    // Warm start from an earlier fit of the same data (for example without the prior).
-    x0[0] = o.start->log_mean;
-    if (!o.home_edge) x0[1] = o.start->log_home;
+    // Warm start from an earlier fit of the same data (for example without the prior), mapped
+    // to corner form.
+    const double ra = o.start->log_offence[n - 1], rb = o.start->log_defence[n - 1];
+    x0[0] = o.start->log_mean + ra + rb;
+    if (layout.home >= 0) x0[layout.home] = o.start->log_home;
     for (int j = 0; j < n - 1; ++j) {
-      x0[2 + j] = o.start->log_offence[j];
-      x0[2 + n - 1 + j] = o.start->log_defence[j];
+      x0[layout.off[j]] = o.start->log_offence[j] - ra;
+      x0[layout.def[j]] = o.start->log_defence[j] - rb;
     }
-    if (shape_free && o.start->shape > 0.0) x0[p] = std::clamp(std::log(o.start->shape), lo, hi);
+    if (shape_free && o.start->shape > 0.0)
+      x0[layout.shape] = std::clamp(std::log(o.start->shape), lo, hi);
   }
-  NewtonOptions nopt;
-  nopt.gradient_tolerance = 1e-9 * std::max<double>(1.0, sides.size());
-  const NewtonResult r = minimize_newton(objective, x0, nopt);
-  theta.assign(r.x.begin(), r.x.begin() + p);
-  const double shape = shape_free ? std::exp(r.x[p]) : fixed_shape;
+  const NewtonOutcome r = newton(problem, x0, 1e-9 * std::max<double>(1.0, sides.size()));
+  const std::vector<double>& x = r.x;
+  const double shape = problem.shape_of(x);
   fit.iterations = r.iterations;
   fit.converged = r.converged;
 
-  const std::vector<double> phi = problem.expand(theta);
-  fit.log_mean = phi[0];
-  fit.log_home = phi[1];
+  // Back to sum-to-zero form.
+  double ma = 0.0, mb = 0.0;
+  for (int j = 0; j < n - 1; ++j) {
+    ma += x[layout.off[j]];
+    mb += x[layout.def[j]];
+  }
+  ma /= n;
+  mb /= n;
+  fit.log_mean = x[0] + ma + mb;
+  fit.log_home = layout.home >= 0 ? x[layout.home] : std::log(*o.home_edge);
   fit.shape = shape;
-  fit.log_offence.assign(phi.begin() + 2, phi.begin() + 2 + n);
-  fit.log_defence.assign(phi.begin() + 2 + n, phi.begin() + 2 + 2 * n);
-  problem.value(theta, shape, nullptr, nullptr, &fit.log_lik);
+  fit.log_offence.resize(n);
+  fit.log_defence.resize(n);
+  for (int i = 0; i < n; ++i) {
+    fit.log_offence[i] = (layout.off[i] >= 0 ? x[layout.off[i]] : 0.0) - ma;
+    fit.log_defence[i] = (layout.def[i] >= 0 ? x[layout.def[i]] : 0.0) - mb;
+  }
+  problem.value(x, shape, nullptr, nullptr, &fit.log_lik);
   fit.free_parameters = 1 + (o.home_edge ? 0 : 1) + 2 * (n - 1) + (shape_free ? 1 : 0);
 
   if (o.covariance) {
-    // Observed information in (theta, log shape).
-    std::vector<double> g, info;
-    objective(r.x, &g, &info);
-    std::vector<double> cov_reduced = spd_inverse(info, q);
-    // Zero the rows of fixed parameters.
-    for (int k = 0; k < q; ++k) {
-      if (o.home_edge)
-        cov_reduced[static_cast<size_t>(1) * q + k] = cov_reduced[static_cast<size_t>(k) * q + 1] =
-            0.0;
-      if (!shape_free)
-        cov_reduced[static_cast<size_t>(p) * q + k] = cov_reduced[static_cast<size_t>(k) * q + p] =
-            0.0;
+    // Observed information in corner form, S - U U^T, and the variance t^T (S - U U^T)^-1 t of
+    // each reported parameter t^T x, where t = e_k + alpha 1_a + beta 1_b.
+    std::vector<double> g, h;
+    problem.derivatives(x, g, h);
+    Solver solver(problem);
+    if (!solver.factor(h, 0.0)) {
+      throw std::domain_error(
+          "fit_joint: the observed information is not positive definite (a club or a group of "
+          "clubs not connected to the others by games, without shrinkage?)");
     }
-    // Map to the full parameters: phi = J theta (log shape passes through).
-    const std::vector<double> j = problem.jacobian();
-    const int P = problem.full(), D = P + 1;
-    std::vector<double> jx(static_cast<size_t>(D) * q, 0.0);
-    for (int r = 0; r < P; ++r) {
-      for (int c = 0; c < p; ++c)
-        jx[static_cast<size_t>(r) * q + c] = j[static_cast<size_t>(r) * p + c];
+    const std::vector<double> diag = inverse_diagonal(solver.sparse(), q);
+    Eigen::VectorXd one_a = Eigen::VectorXd::Zero(q), one_b = Eigen::VectorXd::Zero(q);
+    for (int j = 0; j < n - 1; ++j) {
+      one_a[layout.off[j]] = 1.0;
+      one_b[layout.def[j]] = 1.0;
     }
-    jx[static_cast<size_t>(P) * q + p] = 1.0;
-    std::vector<double> tmp(static_cast<size_t>(D) * q, 0.0);  // Jx C
-    for (int r = 0; r < D; ++r) {
-      for (int k = 0; k < q; ++k) {
-        const double a = jx[static_cast<size_t>(r) * q + k];
-        if (a == 0.0) continue;
-        for (int c = 0; c < q; ++c)
-          tmp[static_cast<size_t>(r) * q + c] += a * cov_reduced[static_cast<size_t>(k) * q + c];
+    const Eigen::VectorXd ca = solver.sparse().solve(one_a), cb = solver.sparse().solve(one_b);
+    const double aa = one_a.dot(ca), ab = one_a.dot(cb), bb = one_b.dot(cb);
+    const double u = solver.rank() > 0 ? std::sqrt(o.prior_precision / n) : 0.0;
+    const auto& ki = solver.kinv();
+    auto variance = [&](int k, double alpha, double beta) {
+      const double dk = k >= 0 ? diag[k] : 0.0;
+      const double cak = k >= 0 ? ca[k] : 0.0, cbk = k >= 0 ? cb[k] : 0.0;
+      double v = dk + 2.0 * alpha * cak + 2.0 * beta * cbk + alpha * alpha * aa +
+                 2.0 * alpha * beta * ab + beta * beta * bb;
+      if (solver.rank() > 0) {
+        const double sa = u * (cak + alpha * aa + beta * ab);
+        const double sb = u * (cbk + alpha * ab + beta * bb);
+        v += sa * (ki[0][0] * sa + ki[0][1] * sb) + sb * (ki[1][0] * sa + ki[1][1] * sb);
       }
+      return v;
+    };
+    const double inv_n = 1.0 / n;
+    fit.variance.assign(fit.dimension(), 0.0);
+    fit.variance[JointFit::LOG_MEAN] = variance(0, inv_n, inv_n);
+    if (layout.home >= 0) fit.variance[JointFit::LOG_HOME] = variance(layout.home, 0.0, 0.0);
+    for (int i = 0; i < n; ++i) {
+      fit.variance[fit.offence_index(i)] = variance(layout.off[i], -inv_n, 0.0);
+      fit.variance[fit.defence_index(i)] = variance(layout.def[i], 0.0, -inv_n);
     }
-    fit.covariance.assign(static_cast<size_t>(D) * D, 0.0);
-    for (int r = 0; r < D; ++r) {
-      for (int c = 0; c < D; ++c) {
-        double s = 0.0;
-        for (int k = 0; k < q; ++k)
-          s += tmp[static_cast<size_t>(r) * q + k] * jx[static_cast<size_t>(c) * q + k];
-        fit.covariance[static_cast<size_t>(r) * D + c] = s;
-      }
-    }
+    if (layout.shape >= 0) fit.variance[fit.log_shape_index()] = variance(layout.shape, 0.0, 0.0);
+    fit.strengths = make_sampler(solver, layout);
   }
   return fit;
 }

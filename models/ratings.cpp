@@ -6,7 +6,6 @@
 #include <stdexcept>
 
 #include "models/fit_report.h"
-#include "models/optimize.h"
 
 namespace standfast::models {
 
@@ -51,14 +50,7 @@ LeagueRatings from_fit(const JointFit& f, config::ScoreFamily family) {
     r.teams[i].log_offence_se = f.se(f.offence_index(i));
     r.teams[i].log_defence_se = f.se(f.defence_index(i));
   }
-  // Covariance block of (log offence, log defence): rows 2 .. 2 + 2n of the fit's covariance.
-  const int d = f.dimension(), m = 2 * n;
-  std::vector<double> block(static_cast<size_t>(m) * m);
-  for (int a = 0; a < m; ++a) {
-    for (int b = 0; b < m; ++b)
-      block[static_cast<size_t>(a) * m + b] = f.covariance[static_cast<size_t>(a + 2) * d + b + 2];
-  }
-  r.cholesky = psd_cholesky(block, m);
+  r.strengths = f.strengths;
   return r;
 }
 
@@ -76,7 +68,6 @@ RatingsFit fit_ratings_detail(const config::Season& season) {
   LeagueRatings& r = out.ratings;
   r.family = spec.family;
   r.teams.assign(n, TeamRating{});
-  r.cholesky.assign(static_cast<size_t>(4) * n * n, 0.0);
   for (const auto& g : season.games) r.games_fitted += g.played ? 1 : 0;
   if (spec.family == config::ScoreFamily::kLog5) {
     r.shape = 0.0;
@@ -95,11 +86,9 @@ RatingsFit fit_ratings_detail(const config::Season& season) {
       out.info_per_side = information_per_side(spec.family, r.league_mean, r.shape);
       out.prior_precision = spec.shrink_games * out.info_per_side;
       const double se = 1.0 / std::sqrt(out.prior_precision);
-      for (int i = 0; i < n; ++i) {
-        r.teams[i].log_offence_se = r.teams[i].log_defence_se = se;
-        r.cholesky[static_cast<size_t>(i) * 2 * n + i] = se;
-        r.cholesky[static_cast<size_t>(n + i) * 2 * n + n + i] = se;
-      }
+      for (int i = 0; i < n; ++i) r.teams[i].log_offence_se = r.teams[i].log_defence_se = se;
+      const std::vector<double> ses(static_cast<size_t>(n), se);
+      r.strengths = diagonal_sampler(ses, ses);
     }
     return out;
   }

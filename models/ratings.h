@@ -18,6 +18,7 @@
 #include <vector>
 
 #include "config/season.h"
+#include "models/strength_sampler.h"
 
 namespace standfast::models {
 
@@ -34,9 +35,10 @@ struct LeagueRatings {
   double shape = 1.8;      // Weibull gamma (weibull); size r (negative_binomial); unused otherwise
   double home_edge = 1.0;  // multiplier on the home side's expected runs
   std::vector<TeamRating> teams;  // Season::teams order
-  // Lower-triangular Cholesky factor L (row-major, dimension 2n) of the covariance of
-  // (log offence_0..n-1, log defence_0..n-1): a draw is estimate + L z, z standard normal.
-  std::vector<double> cholesky;
+  // Draws of (log offence_0..n-1, log defence_0..n-1) around the estimates from their joint
+  // uncertainty, through a sparse factor of the precision (models/strength_sampler.h). Empty
+  // when there is no uncertainty (family log5, or nothing played and no shrinkage).
+  StrengthSampler strengths;
 
   // Standard errors of the league values (0 when fixed by the season file or not fitted).
   double league_mean_se = 0.0, shape_se = 0.0, home_edge_se = 0.0;

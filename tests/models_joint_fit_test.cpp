@@ -4,6 +4,7 @@
 //    scipy.stats.nbinom and maximised by scipy.optimize.minimize (BFGS), in
 //    tests/data/models/fit_ref.py, run with /usr/bin/python3 when present (skipped with a
 //    warning otherwise). Agreement to 4 significant digits (relative 1e-4 on the parameters).
+//  - The dense fit this sparse one replaced (commit 794eac4), on the demo league.
 //  - Parameter recovery and interval coverage on data generated from known parameters with
 //    our own samplers (models/synthetic.h; pcg64, fixed seeds).
 #include <fmt/core.h>
@@ -14,9 +15,12 @@
 #include <filesystem>
 #include <fstream>
 #include <map>
+#include <nlohmann/json.hpp>
 #include <sstream>
 #include <string>
 
+#include "config/load.h"
+#include "models/fit_report.h"
 #include "models/joint_fit.h"
 #include "models/plain_fit.h"
 #include "models/synthetic.h"
@@ -262,4 +266,44 @@ TEST_CASE("information per side against closed forms") {
     neg_d2 -= std::exp(t.value) * t.d2;
   }
   CHECK(information_per_side(ScoreFamily::kWeibull, 4.5, 1.8) == Approx(neg_d2).epsilon(1e-8));
+}
+
+TEST_CASE("the sparse fit gives the dense fit's answers on the demo league") {
+  // Ref: `standfast fit tests/data/models/demo_fit/season.yaml --format json` at commit
+  // 794eac4 (dense normal equations over all ratings, dense covariance), stored in
+  // tests/data/models/demo_fit/fit_794eac4.json; 4 significant digits (relative 1e-4). The
+  // shape's standard error is a central difference in both fits; everything else is analytic.
+  const std::string dir = STANDFAST_TEST_DATA "/models/demo_fit/";
+  const auto season = standfast::config::load_season(dir + "season.yaml");
+  std::ifstream in(dir + "fit_794eac4.json");
+  const nlohmann::json ref = nlohmann::json::parse(in);
+  const RatingsFit rf = fit_ratings_detail(season);
+  const LeagueRatings& r = rf.ratings;
+  const auto& league = ref.at("league");
+  const double tol = 1e-4;
+  CHECK(r.league_mean == Approx(league.at("league_mean").get<double>()).epsilon(tol));
+  CHECK(r.league_mean_se == Approx(league.at("league_mean_se").get<double>()).epsilon(tol));
+  CHECK(r.shape == Approx(league.at("shape").get<double>()).epsilon(tol));
+  CHECK(r.shape_se == Approx(league.at("shape_se").get<double>()).epsilon(tol));
+  CHECK(r.home_edge == Approx(league.at("home_edge").get<double>()).epsilon(tol));
+  CHECK(r.home_edge_se == Approx(league.at("home_edge_se").get<double>()).epsilon(tol));
+  REQUIRE(rf.mle.has_value());
+  const JointFit& mle = *rf.mle;
+  const auto& teams = ref.at("teams");
+  REQUIRE(teams.size() == r.teams.size());
+  for (std::size_t i = 0; i < teams.size(); ++i) {
+    const auto& adj = teams[i].at("adjusted");
+    const auto& raw = teams[i].at("adjusted_mle");
+    const int t = static_cast<int>(i);
+    CHECK(r.teams[i].offence == Approx(adj.at("offence").get<double>()).epsilon(tol));
+    CHECK(r.teams[i].defence == Approx(adj.at("defence").get<double>()).epsilon(tol));
+    CHECK(r.teams[i].log_offence_se == Approx(adj.at("offence_log_se").get<double>()).epsilon(tol));
+    CHECK(r.teams[i].log_defence_se == Approx(adj.at("defence_log_se").get<double>()).epsilon(tol));
+    CHECK(std::exp(mle.log_offence[i]) == Approx(raw.at("offence").get<double>()).epsilon(tol));
+    CHECK(std::exp(mle.log_defence[i]) == Approx(raw.at("defence").get<double>()).epsilon(tol));
+    CHECK(mle.se(mle.offence_index(t)) ==
+          Approx(raw.at("offence_log_se").get<double>()).epsilon(tol));
+    CHECK(mle.se(mle.defence_index(t)) ==
+          Approx(raw.at("defence_log_se").get<double>()).epsilon(tol));
+  }
 }

@@ -1,7 +1,7 @@
 // Tests for models/ratings.h (fit_ratings, LeagueRatings) and models/fit_report.h.
-// References: the Cholesky factor against the covariance it factors (L L^T = Sigma, closed
-// form); expected runs against the model formula; shrinkage against the precision-weighted
-// mean (closed form for a normal prior); the report's records against counts of the games.
+// References: the strength sampler's covariance against the standard errors (closed form);
+// expected runs against the model formula; shrinkage against the precision-weighted mean (closed
+// form for a normal prior); the report's records against counts of the games.
 #include <catch2/catch.hpp>
 #include <cmath>
 
@@ -30,7 +30,7 @@ TEST_CASE("fit_ratings: estimates, expected runs and the covariance factor") {
   season.model.shrink_games = 0.0;
   const LeagueRatings r = fit_ratings(season);
   REQUIRE(r.teams.size() == static_cast<size_t>(n));
-  REQUIRE(r.cholesky.size() == static_cast<size_t>(4 * n * n));
+  REQUIRE(r.strengths.teams == n);
   CHECK(r.games_fitted == static_cast<int>(season.games.size()));
   CHECK(r.converged);
   CHECK(r.shape > 1.0);
@@ -49,19 +49,18 @@ TEST_CASE("fit_ratings: estimates, expected runs and the covariance factor") {
   CHECK(r.expected_runs(2, 3, 1.0, false) ==
         Approx(r.league_mean * r.teams[2].offence * r.teams[3].defence));
   CHECK_THROWS_WITH(r.expected_runs(9, 0, 1.0, true), Catch::Contains("out of range"));
-  // Ref: closed form; a Cholesky factor L of Sigma has diag(L L^T) = SE^2; relative 1e-9.
+  // Ref: closed form; the sampler's covariance sum_k draw(e_k) draw(e_k)^T has the squared
+  // standard errors on its diagonal (both from the same observed information); relative 1e-9.
   const int m = 2 * n;
+  const std::vector<double> cov = sampler_covariance(r.strengths);
   for (int i = 0; i < m; ++i) {
-    for (int j = i + 1; j < m; ++j) CHECK(r.cholesky[i * m + j] == 0.0);
-    double v = 0;
-    for (int k = 0; k < m; ++k) v += r.cholesky[i * m + k] * r.cholesky[i * m + k];
     const double se = i < n ? r.teams[i].log_offence_se : r.teams[i - n].log_defence_se;
-    CHECK(std::sqrt(v) == Approx(se).epsilon(1e-9));
+    CHECK(std::sqrt(cov[i * m + i]) == Approx(se).epsilon(1e-9));
   }
-  // The offences sum to zero in every draw: the rows of L for the offences sum to zero.
+  // The offences sum to zero in every draw: the covariance rows of the offences sum to zero.
   for (int k = 0; k < m; ++k) {
     double s = 0;
-    for (int i = 0; i < n; ++i) s += r.cholesky[i * m + k];
+    for (int i = 0; i < n; ++i) s += cov[i * m + k];
     CHECK(s == Approx(0.0).margin(1e-10));
   }
 }

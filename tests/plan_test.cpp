@@ -86,7 +86,8 @@ TEST_CASE("remaining games in date order, undated last; venue and home factors")
   CHECK(p.log_offence[1] == Approx(std::log(1.2)));
   // Standard errors without a covariance become a diagonal factor.
   REQUIRE(p.draw_strengths);
-  CHECK(p.cholesky[1 * 16 + 1] == 0.1);
+  CHECK(p.strengths.scale[1] == 0.1);
+  CHECK(p.strengths.normals() == 16);
 }
 
 TEST_CASE("brackets: byes, round alignment and bad shapes") {
