@@ -340,6 +340,10 @@ SimulationResult simulate(const Plan& plan, const RunOptions& options) {
     throw std::invalid_argument("simulate: threads must be >= 0, got " +
                                 std::to_string(options.threads));
   if (plan.teams < 2) throw std::invalid_argument("simulate: the plan has no league");
+  if (options.ranks < 1 || options.rank < 0 || options.rank >= options.ranks ||
+      (options.ranks > 1 && !options.combine))
+    throw std::invalid_argument("simulate: rank " + std::to_string(options.rank) + " of " +
+                                std::to_string(options.ranks) + " (several need combine)");
   std::optional<tbb::global_control> control;
   if (options.threads > 0)
     control.emplace(tbb::global_control::max_allowed_parallelism,
@@ -354,20 +358,31 @@ SimulationResult simulate(const Plan& plan, const RunOptions& options) {
   std::uint64_t done = 0;
   while (done < options.seasons) {
     const std::uint64_t end = std::min(options.seasons, done + options.batch);
-    tbb::parallel_for(
-        tbb::blocked_range<std::uint64_t>(done, end, GRAIN),
-        [&](const tbb::blocked_range<std::uint64_t>& range) {
-          Worker& w = workers.local();
-          SeasonStreams streams(options.seed, range.begin());
-          for (std::uint64_t s = range.begin(); s < range.end(); ++s) {
-            runner.run(streams, w);
-            streams.next();
-          }
-        },
-        tbb::simple_partitioner());
+    // This process's share of the batch (all of it when alone).
+    const auto ranks = static_cast<std::uint64_t>(options.ranks);
+    const auto rank = static_cast<std::uint64_t>(options.rank);
+    const std::uint64_t first = done + (end - done) * rank / ranks;
+    const std::uint64_t last = done + (end - done) * (rank + 1) / ranks;
+    if (first < last)
+      tbb::parallel_for(
+          tbb::blocked_range<std::uint64_t>(first, last, GRAIN),
+          [&](const tbb::blocked_range<std::uint64_t>& range) {
+            Worker& w = workers.local();
+            SeasonStreams streams(options.seed, range.begin());
+            for (std::uint64_t s = range.begin(); s < range.end(); ++s) {
+              runner.run(streams, w);
+              streams.next();
+            }
+          },
+          tbb::simple_partitioner());
     done = end;
     total.clear();
     for (const Worker& w : workers) total.merge(w.tally);
+    if (options.ranks > 1) {
+      std::vector<std::uint64_t> counts = total.counts();
+      options.combine(counts);
+      total.set_counts(counts);
+    }
     if (options.progress) options.progress(done, options.seasons);
     if (options.target_se > 0 && done < options.seasons && total.max_se() < options.target_se) {
       result.stopped_early = true;

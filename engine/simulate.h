@@ -23,6 +23,12 @@ struct RunOptions {
   bool postseason = true;          // false: regular season and standings only (benchmarks)
   // Called between batches on the caller's thread with the seasons done so far and the maximum.
   std::function<void(std::uint64_t done, std::uint64_t total)> progress;
+  // One run shared by several processes (MPI ranks): this process plays its share, rank of
+  // ranks, of every batch, and `combine` replaces its integer counts (Tally::counts) by their
+  // sum over the processes (an all-reduce). Every process then holds the totals of a
+  // single-process run, and takes the same stop decision.
+  int rank = 0, ranks = 1;
+  std::function<void(std::vector<std::uint64_t>& counts)> combine;
 };
 
 struct Probability {
@@ -54,7 +60,8 @@ struct SimulationResult {
 // compile_plan(season, ratings) is declared in engine/plan.h.
 
 // Runs up to options.seasons seasons in batches of options.batch (the last may be shorter), in
-// parallel with oneTBB. Throws std::invalid_argument for a zero batch or negative threads.
+// parallel with oneTBB. Throws std::invalid_argument for a zero batch, negative threads, or a
+// rank outside 0..ranks-1 (or several ranks without `combine`).
 SimulationResult simulate(const Plan& plan, const RunOptions& options);
 
 }  // namespace standfast::engine

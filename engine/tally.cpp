@@ -2,6 +2,8 @@
 
 #include <algorithm>
 #include <cmath>
+#include <stdexcept>
+#include <string>
 
 #include "engine/simulate.h"
 
@@ -42,6 +44,29 @@ void Tally::merge(const Tally& o) {
   add(reached_, o.reached_);
   add(wins_, o.wins_);
   add(seed_, o.seed_);
+}
+
+std::vector<std::uint64_t> Tally::counts() const {
+  std::vector<std::uint64_t> c{seasons_, games_, extra_, drawn_};
+  for (const auto* v :
+       {&division_, &postseason_, &bye_, &title_, &losses_, &reached_, &wins_, &seed_})
+    c.insert(c.end(), v->begin(), v->end());
+  return c;
+}
+
+void Tally::set_counts(const std::vector<std::uint64_t>& c) {
+  if (c.size() != counts().size())
+    throw std::invalid_argument("Tally::set_counts: " + std::to_string(c.size()) +
+                                " counts for a tally of " + std::to_string(counts().size()));
+  seasons_ = c[0];
+  games_ = c[1];
+  extra_ = c[2];
+  drawn_ = c[3];
+  auto it = c.begin() + 4;
+  for (auto* v : {&division_, &postseason_, &bye_, &title_, &losses_, &reached_, &wins_, &seed_}) {
+    std::copy(it, it + static_cast<std::ptrdiff_t>(v->size()), v->begin());
+    it += static_cast<std::ptrdiff_t>(v->size());
+  }
 }
 
 Probability probability(std::uint64_t count, std::uint64_t n) {

@@ -22,6 +22,9 @@ class Tally {
 
   void clear();
   void merge(const Tally& other);
+  // Every counter in a fixed order (for adding the tallies of several processes), and back.
+  std::vector<std::uint64_t> counts() const;
+  void set_counts(const std::vector<std::uint64_t>& counts);  // throws if the size differs
 
   // One team's season.
   void add_team(int team, int wins, int losses, int seed, bool division, bool bye,

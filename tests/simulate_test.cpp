@@ -12,10 +12,12 @@
 
 #include <algorithm>
 #include <array>
+#include <barrier>
 #include <boost/math/special_functions/beta.hpp>
 #include <catch2/catch.hpp>
 #include <cmath>
 #include <numeric>
+#include <thread>
 
 #include "engine/game.h"
 #include "models/ratings.h"
@@ -394,6 +396,50 @@ TEST_CASE("early stop happens at a batch boundary, the same for any thread count
   // Memory is flat: histograms have the league's sizes, not the number of seasons.
   CHECK(one.teams[0].wins_histogram.size() == 34);
   CHECK(one.teams[0].seed_histogram.size() == 4);
+}
+
+TEST_CASE("a run split over processes gives the single-process result, early stop included") {
+  // Processes are emulated by threads that exchange their counts at every batch (what an MPI
+  // all-reduce of integer sums does); the result must equal one process's, bit for bit.
+  const config::Season s = twelve_teams();
+  const Plan plan = compile_plan(s, twelve_ratings(s));
+  RunOptions opt;
+  opt.seed = 11;
+  opt.seasons = 1000000;
+  opt.batch = 700;
+  opt.target_se = 0.01;
+  const SimulationResult single = simulate(plan, opt);
+  REQUIRE(single.stopped_early);
+  for (int ranks : {2, 3}) {
+    std::barrier sync(ranks);
+    std::vector<std::vector<std::uint64_t>> slots(static_cast<std::size_t>(ranks));
+    std::vector<SimulationResult> results(static_cast<std::size_t>(ranks));
+    std::vector<std::thread> procs;
+    for (int r = 0; r < ranks; ++r) {
+      procs.emplace_back([&, r] {
+        RunOptions o = opt;
+        o.rank = r;
+        o.ranks = ranks;
+        o.combine = [&, r](std::vector<std::uint64_t>& counts) {
+          slots[static_cast<std::size_t>(r)] = counts;
+          sync.arrive_and_wait();
+          std::fill(counts.begin(), counts.end(), 0);
+          for (const auto& other : slots)
+            for (std::size_t i = 0; i < counts.size(); ++i) counts[i] += other[i];
+          sync.arrive_and_wait();
+        };
+        results[static_cast<std::size_t>(r)] = simulate(plan, o);
+      });
+    }
+    for (auto& t : procs) t.join();
+    for (const auto& r : results) require_identical(single, r);
+  }
+  RunOptions bad = opt;
+  bad.ranks = 2;  // several ranks without a way to combine them
+  CHECK_THROWS_AS(simulate(plan, bad), std::invalid_argument);
+  bad.combine = [](std::vector<std::uint64_t>&) {};
+  bad.rank = 2;
+  CHECK_THROWS_AS(simulate(plan, bad), std::invalid_argument);
 }
 
 TEST_CASE("bad run options are refused") {
