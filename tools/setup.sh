@@ -9,6 +9,7 @@ packages=(build-essential cmake libtbb-dev libboost-math-dev libboost-graph-dev 
           libpcg-cpp-dev catch2 libcli11-dev nlohmann-json3-dev libfmt-dev python3 python3-scipy
           python3-numpy)
 packages+=(libeigen3-dev)  # sparse Cholesky factorisation of the joint fit (models/joint_fit.cpp)
+packages+=(libsqlite3-dev sqlite3)  # the odds history (tools/history.h) and its tests
 missing=()
 for p in "${packages[@]}"; do
   dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
