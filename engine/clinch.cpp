@@ -45,7 +45,8 @@ std::vector<ClinchRecord> clinch_records(const config::Season& season) {
   std::vector<ClinchRecord> out(season.teams.size());
   for (const auto& g : season.games) {
     if (g.home < 0 || g.away < 0) continue;
-    if (!g.played) {
+    // As the engine's plan: a played game with no date is still to play.
+    if (!g.played || !g.date) {
       ++out[g.home].remaining;
       ++out[g.away].remaining;
     } else if (g.home_runs > g.away_runs) {

@@ -199,6 +199,7 @@ TEST_CASE("records count played wins and losses and every unplayed game") {
     g.home = home;
     g.away = away;
     g.played = played;
+    if (played) g.date = 1;  // a played game without a date counts as still to play
     g.home_runs = hr;
     g.away_runs = ar;
     return g;
