@@ -119,16 +119,17 @@ TEST_CASE("bad input exits 2") {
 }
 
 TEST_CASE("standings marks and simulated chances agree on the late-season demo league") {
-  // Two independent routes to certainty: counting wins and games left (engine/clinch.h) and the
-  // simulation. A team marked clinched must have won in every simulated season and a team
-  // marked eliminated in none (exact: a mark is a proof, so no Monte Carlo tolerance applies).
+  // Two independent routes to certainty: the exact marks from the standings and the schedule
+  // (engine/certainty.h) and the simulation. A team marked clinched must have won in every
+  // simulated season and a team marked eliminated in none: the chance is exactly 1 or 0 (a mark
+  // is a proof, so no Monte Carlo tolerance applies).
   const std::string late = STANDFAST_SOURCE_DIR "/scenarios/demo-late/season.yaml";
   const Run r = run("odds " + late + " --seasons 2000 --format json");
   REQUIRE(r.status == 0);
   const auto doc = nlohmann::json::parse(r.out);
   int marked = 0;
   for (const auto& t : doc["teams"]) {
-    for (const char* key : {"division_title", "postseason"}) {
+    for (const char* key : {"division_title", "postseason", "bye", "title"}) {
       const auto& c = t[key];
       const std::string status = c["status"].get<std::string>();
       INFO(t["id"].get<std::string>() << " " << key);

@@ -200,9 +200,10 @@ TEST_CASE("CSV has one documented row per team, quoted where needed") {
   REQUIRE(lines.size() == 5);
   CHECK(lines[0] ==
         "team_id,team_name,conference,division,wins,losses,games_left,mean_wins,mean_losses,"
-        "wins_p10,wins_p50,wins_p90,division_p,division_se,division_status,postseason_p,"
-        "postseason_se,postseason_status,bye_p,bye_se,title_p,title_se,round1_p,round1_se,"
-        "round2_p,round2_se");
+        "wins_p10,wins_p50,wins_p90,division_p,division_se,division_status,division_magic,"
+        "division_elimination,postseason_p,postseason_se,postseason_status,postseason_magic,"
+        "postseason_elimination,bye_p,bye_se,bye_status,title_p,title_se,title_status,round1_p,"
+        "round1_se,round2_p,round2_se");
   // Table order: upper division (QLK 20-5, SOW 8-17), lower (FHE 14-11, RTC 12-13).
   CHECK(lines[1].rfind("QLK,Quarry Larks,north,north-a,20,5,5,11.500,18.500,10,11,12,", 0) == 0);
   CHECK(lines[3].rfind("FHE,", 0) == 0);
@@ -277,4 +278,56 @@ TEST_CASE("without a postseason only the division columns are written") {
   CHECK(tools::write_odds_table(report).find("Title") == std::string::npos);
   const auto doc = nlohmann::json::parse(tools::write_odds_json(report));
   CHECK_FALSE(doc["teams"][0].contains("postseason"));
+}
+
+TEST_CASE("exact certainty: marks, magic and elimination numbers in every format") {
+  // Invented marks and numbers (the computation itself is tested in certainty_test.cpp): only
+  // how they are written is checked here.
+  tools::OddsReport report = make_report();
+  std::vector<standfast::engine::TeamCertainty> c(4);
+  c[0].division = {Certainty::kClinched, 0, -1, true};
+  c[0].berth = {Certainty::kClinched, 0, -1, true};
+  c[0].bye = Certainty::kClinched;
+  c[1].division = {Certainty::kEliminated, -1, 0, true};
+  c[1].berth = {Certainty::kEliminated, -1, 0, true};
+  c[1].bye = c[1].title = Certainty::kEliminated;
+  c[2].division = {Certainty::kOpen, 3, 7, true};
+  c[2].berth = {Certainty::kOpen, -1, 4, true};
+  c[3].division = {Certainty::kEliminated, -1, 0, true};  // the exact marks replace the given
+  tools::attach_certainty(report, c);
+  CHECK(report.certainty);
+  CHECK(report.teams[3].marks.division == Certainty::kEliminated);
+
+  const std::string table = tools::write_odds_table(report);
+  CHECK(table.find("Div M/E") != std::string::npos);
+  CHECK(table.find("Post M/E") != std::string::npos);
+  CHECK(table.find("M/E: magic number") != std::string::npos);
+  const auto rows = lines_of(table);
+  const auto row_of = [&](const std::string& name) {
+    for (const auto& l : rows) {
+      if (l.rfind(name, 0) == 0) return l;
+    }
+    return std::string();
+  };
+  const std::string rtc = row_of("Ridge, Tern & Co");
+  CHECK(rtc.find("3/7") != std::string::npos);
+  CHECK(rtc.find("-/4") != std::string::npos);
+
+  const auto csv = lines_of(tools::write_odds_csv(report));
+  // RTC (team 2): division open, magic 3, elimination 7; postseason magic none, elimination 4.
+  CHECK(csv[4].find(",0.250000,0.004330,,3,7,") != std::string::npos);
+  CHECK(csv[4].find(",,,4,") != std::string::npos);
+  CHECK(csv[1].find(",clinched,0,,") != std::string::npos);  // QLK: clinched, magic 0
+  CHECK(csv[1].find(",clinched,") != std::string::npos);
+
+  const auto doc = nlohmann::json::parse(tools::write_odds_json(report));
+  const auto& t = doc["teams"][3];  // RTC
+  CHECK(t["division_title"]["magic_number"] == 3);
+  CHECK(t["division_title"]["elimination_number"] == 7);
+  CHECK(t["division_title"]["proof_complete"] == true);
+  CHECK(t["postseason"]["magic_number"].is_null());
+  CHECK(t["postseason"]["elimination_number"] == 4);
+  CHECK(doc["teams"][0]["bye"]["status"] == "clinched");
+  CHECK(doc["teams"][1]["title"]["status"] == "eliminated");
+  CHECK(doc["teams"][1]["bye"]["status"] == "eliminated");
 }

@@ -14,6 +14,8 @@
 #include <string>
 
 #include "config/load.h"
+#include "engine/certainty.h"
+#include "engine/clinch.h"
 #include "tests/process_support.h"
 
 namespace fs = std::filesystem;
@@ -117,4 +119,55 @@ TEST_CASE("standings output goes to a file whole; bad input exits 2") {
   CHECK(run("standings " + SMALL + " --output " + (dir / "no" / "such" / "dir.txt").string())
             .status == 2);
   CHECK_FALSE(fs::exists(dir / "no"));
+}
+
+TEST_CASE("standings carry the exact marks and the magic and elimination numbers") {
+  // Plumbing: every team's certainty in the JSON and the CSV is what engine::exact_certainty
+  // computes for the same season (the computation is checked in certainty_test.cpp against
+  // enumeration). The late-season demo has decided races, so both kinds of value appear.
+  const std::string late = STANDFAST_SOURCE_DIR "/scenarios/demo-late/season.yaml";
+  const auto season = standfast::config::load_season(late);
+  const auto expect =
+      standfast::engine::exact_certainty(season, standfast::engine::clinch_records(season));
+  const Run j = run("standings " + late + " --format json");
+  REQUIRE(j.status == 0);
+  const auto doc = nlohmann::json::parse(j.out);
+  auto number = [](int n) { return n < 0 ? nlohmann::json(nullptr) : nlohmann::json(n); };
+  auto word = [](standfast::engine::Certainty c) {
+    return c == standfast::engine::Certainty::kClinched     ? std::string("clinched")
+           : c == standfast::engine::Certainty::kEliminated ? std::string("eliminated")
+                                                            : std::string();
+  };
+  int teams = 0, marked = 0;
+  for (const auto& c : doc.at("conferences")) {
+    for (const auto& d : c.at("divisions")) {
+      for (const auto& t : d.at("teams")) {
+        const int index = season.team_index(t.at("id").get<std::string>());
+        REQUIRE(index >= 0);
+        const auto& e = expect[static_cast<std::size_t>(index)];
+        INFO(t.at("id").get<std::string>());
+        const auto& div = t.at("certainty").at("division");
+        const auto& post = t.at("certainty").at("postseason");
+        CHECK(div.at("status") == word(e.division.mark));
+        CHECK(div.at("magic_number") == number(e.division.magic));
+        CHECK(div.at("elimination_number") == number(e.division.elimination));
+        CHECK(post.at("status") == word(e.berth.mark));
+        CHECK(post.at("magic_number") == number(e.berth.magic));
+        CHECK(post.at("elimination_number") == number(e.berth.elimination));
+        CHECK(post.at("proof_complete") == true);
+        marked += e.division.mark != standfast::engine::Certainty::kOpen;
+        ++teams;
+      }
+    }
+  }
+  CHECK(teams == static_cast<int>(season.teams.size()));
+  CHECK(marked > 0);
+  const Run c = run("standings " + late + " --format csv");
+  REQUIRE(c.status == 0);
+  CHECK(c.out.find("division_status,division_magic,division_elimination,postseason_status,"
+                   "postseason_magic,postseason_elimination") != std::string::npos);
+  const Run t = run("standings " + late);
+  REQUIRE(t.status == 0);
+  CHECK(t.out.find("Div M/E") != std::string::npos);
+  CHECK(t.out.find("eliminated") != std::string::npos);
 }

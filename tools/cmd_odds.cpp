@@ -9,6 +9,7 @@
 #include <string>
 
 #include "config/load.h"
+#include "engine/certainty.h"
 #include "engine/clinch.h"
 #include "engine/plan.h"
 #include "engine/simulate.h"
@@ -75,7 +76,9 @@ void run_odds(const OddsOptions& opt) {
   }
 
   const auto records = engine::clinch_records(season);
-  const auto marks = engine::simple_clinch(season, records);
+  // Exact marks and magic numbers before the run (engine/certainty.h; milliseconds).
+  const auto certainty = engine::exact_certainty(season, records);
+  const auto marks = engine::certainty_marks(certainty);
 
   ProgressBar bar;
   engine::RunOptions run;
@@ -87,8 +90,8 @@ void run_odds(const OddsOptions& opt) {
   const engine::SimulationResult result = engine::simulate(plan, run);
   bar.finish();
 
-  const OddsReport report =
-      make_odds_report(season, result, records, marks, opt.target_se, opt.group);
+  OddsReport report = make_odds_report(season, result, records, marks, opt.target_se, opt.group);
+  attach_certainty(report, certainty);
   std::string text;
   switch (format) {
     case Format::kTable:

@@ -11,7 +11,10 @@
 #include <vector>
 
 #include "config/load.h"
+#include "engine/certainty.h"
+#include "engine/clinch.h"
 #include "engine/standings.h"
+#include "tools/certainty_text.h"
 #include "tools/commands.h"
 #include "tools/output.h"
 
@@ -22,6 +25,7 @@ namespace {
 using config::Season;
 using engine::Standings;
 using engine::StandingsLine;
+using Certainties = std::vector<engine::TeamCertainty>;
 
 constexpr int SCHEMA_VERSION = 1;
 
@@ -58,7 +62,7 @@ std::string through_text(const Standings& st) {
   return st.through ? config::format_date(*st.through) : std::string("(no games played)");
 }
 
-std::string table(const Season& s, const Standings& st) {
+std::string table(const Season& s, const Standings& st, const Certainties& cert) {
   std::string out = fmt::format("{}, {}: standings through {} ({} games played)\n", s.league.name,
                                 s.league.season_label, through_text(st), st.games_played);
   std::size_t name_width = 4;
@@ -66,7 +70,7 @@ std::string table(const Season& s, const Standings& st) {
   for (const auto& g : s.groups) name_width = std::max(name_width, g.name.size());
   const auto row = [&](const std::string& first, const std::vector<std::string>& cells) {
     std::string line = fmt::format("  {:<{}}", first, name_width);
-    static constexpr int WIDTHS[] = {4, 5, 6, 5, 9, 7, 7, 9, 11, 8, 8, 5};
+    static constexpr int WIDTHS[] = {4, 5, 6, 5, 9, 7, 7, 9, 11, 8, 8, 5, 10, 10};
     for (std::size_t i = 0; i < cells.size(); ++i) {
       line += fmt::format(" {:>{}}", cells[i], WIDTHS[i]);
     }
@@ -79,19 +83,28 @@ std::string table(const Season& s, const Standings& st) {
     for (const auto& ds : cs.divisions) {
       const auto& div = s.groups[static_cast<std::size_t>(ds.division)];
       out += "\n";
-      out += row(div.name == conf.name ? std::string("Team") : div.name,
-                 {"Won", "Lost", "Pct", "Back", "Run diff", "Home", "Road", "Division",
-                  "Conference", "Last 10", "Streak", "Seed"});
+      std::vector<std::string> head = {"Won",    "Lost", "Pct",      "Back",       "Run diff",
+                                       "Home",   "Road", "Division", "Conference", "Last 10",
+                                       "Streak", "Seed", "Div M/E"};
+      if (s.postseason.enabled) head.push_back("Post M/E");
+      out += row(div.name == conf.name ? std::string("Team") : div.name, head);
       for (const auto& l : ds.lines) {
-        out +=
-            row(s.teams[static_cast<std::size_t>(l.team)].name,
-                {fmt::format("{}", l.wins), fmt::format("{}", l.losses), pct_text(l), back_text(l),
-                 diff_text(l.run_differential()), record_text(l.home_wins, l.home_losses),
-                 record_text(l.road_wins, l.road_losses),
-                 record_text(l.division_wins, l.division_losses),
-                 record_text(l.conference_wins, l.conference_losses),
-                 record_text(l.last10_wins, l.last10_losses), streak_text(l.streak),
-                 l.seed > 0 ? fmt::format("{}", l.seed) : std::string()});
+        const engine::TeamCertainty& c = cert[static_cast<std::size_t>(l.team)];
+        std::vector<std::string> cells = {fmt::format("{}", l.wins),
+                                          fmt::format("{}", l.losses),
+                                          pct_text(l),
+                                          back_text(l),
+                                          diff_text(l.run_differential()),
+                                          record_text(l.home_wins, l.home_losses),
+                                          record_text(l.road_wins, l.road_losses),
+                                          record_text(l.division_wins, l.division_losses),
+                                          record_text(l.conference_wins, l.conference_losses),
+                                          record_text(l.last10_wins, l.last10_losses),
+                                          streak_text(l.streak),
+                                          l.seed > 0 ? fmt::format("{}", l.seed) : std::string(),
+                                          magic_cell(c.division, true)};
+        if (s.postseason.enabled) cells.push_back(magic_cell(c.berth, true));
+        out += row(s.teams[static_cast<std::size_t>(l.team)].name, cells);
       }
     }
     if (!cs.seeds.empty()) {
@@ -104,14 +117,21 @@ std::string table(const Season& s, const Standings& st) {
       }
     }
   }
+  out +=
+      "\nDiv M/E, Post M/E: magic number (further wins that make the division or a postseason "
+      "spot certain whatever else happens) / elimination number (further losses that end the "
+      "chance); -: the team's own results alone cannot decide it. clinched/eliminated: certain "
+      "from the standings and the remaining schedule (a possible tie is neither).\n";
   return out;
 }
 
-std::string csv(const Season& s, const Standings& st) {
+std::string csv(const Season& s, const Standings& st, const Certainties& cert) {
   std::string out =
       "conference,division,place,team_id,team,wins,losses,win_pct,games_back,runs_for,"
       "runs_against,run_diff,home_wins,home_losses,road_wins,road_losses,division_wins,"
-      "division_losses,conference_wins,conference_losses,last10_wins,last10_losses,streak,seed\n";
+      "division_losses,conference_wins,conference_losses,last10_wins,last10_losses,streak,seed,"
+      "division_status,division_magic,division_elimination,postseason_status,postseason_magic,"
+      "postseason_elimination\n";
   for (const auto& cs : st.conferences) {
     const auto& conf = s.groups[static_cast<std::size_t>(cs.conference)];
     for (const auto& ds : cs.divisions) {
@@ -119,20 +139,36 @@ std::string csv(const Season& s, const Standings& st) {
       int place = 0;
       for (const auto& l : ds.lines) {
         const auto& team = s.teams[static_cast<std::size_t>(l.team)];
+        const engine::TeamCertainty& c = cert[static_cast<std::size_t>(l.team)];
         out += fmt::format(
-            "{},{},{},{},{},{},{},{},{:.1f},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}\n",
+            "{},{},{},{},{},{},{},{},{:.1f},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},"
+            "{},{},{},{},{},{}\n",
             csv_field(conf.id), csv_field(div.id), ++place, csv_field(team.id),
             csv_field(team.name), l.wins, l.losses, pct_text(l), l.games_back_halves / 2.0,
             l.runs_for, l.runs_against, l.run_differential(), l.home_wins, l.home_losses,
             l.road_wins, l.road_losses, l.division_wins, l.division_losses, l.conference_wins,
-            l.conference_losses, l.last10_wins, l.last10_losses, l.streak, l.seed);
+            l.conference_losses, l.last10_wins, l.last10_losses, l.streak, l.seed,
+            certainty_word(c.division.mark), number_field(c.division.magic),
+            number_field(c.division.elimination),
+            s.postseason.enabled ? certainty_word(c.berth.mark) : "",
+            s.postseason.enabled ? number_field(c.berth.magic) : "",
+            s.postseason.enabled ? number_field(c.berth.elimination) : "");
       }
     }
   }
   return out;
 }
 
-std::string json(const Season& s, const Standings& st) {
+// One outcome's certainty in JSON: its status and numbers (null when they do not exist).
+nlohmann::ordered_json certainty_json(const engine::OutcomeCertainty& c) {
+  using json = nlohmann::ordered_json;
+  return {{"status", certainty_word(c.mark)},
+          {"magic_number", c.magic >= 0 ? json(c.magic) : json(nullptr)},
+          {"elimination_number", c.elimination >= 0 ? json(c.elimination) : json(nullptr)},
+          {"proof_complete", c.exact}};
+}
+
+std::string json(const Season& s, const Standings& st, const Certainties& cert) {
   using json = nlohmann::ordered_json;
   json doc;
   doc["schema_version"] = SCHEMA_VERSION;
@@ -159,6 +195,9 @@ std::string json(const Season& s, const Standings& st) {
       json teams = json::array();
       for (const auto& l : ds.lines) {
         const auto& team = s.teams[static_cast<std::size_t>(l.team)];
+        const engine::TeamCertainty& c = cert[static_cast<std::size_t>(l.team)];
+        json certain = {{"division", certainty_json(c.division)}};
+        if (s.postseason.enabled) certain["postseason"] = certainty_json(c.berth);
         teams.push_back(
             {{"id", team.id},
              {"name", team.name},
@@ -175,7 +214,8 @@ std::string json(const Season& s, const Standings& st) {
              {"conference", {{"wins", l.conference_wins}, {"losses", l.conference_losses}}},
              {"last10", {{"wins", l.last10_wins}, {"losses", l.last10_losses}}},
              {"streak", l.streak},
-             {"seed", l.seed > 0 ? json(l.seed) : json(nullptr)}});
+             {"seed", l.seed > 0 ? json(l.seed) : json(nullptr)},
+             {"certainty", certain}});
       }
       divs.push_back({{"id", div.id}, {"name", div.name}, {"teams", teams}});
     }
@@ -209,16 +249,17 @@ void add_standings_command(CLI::App& app) {
       fmt::print(stderr, "{}\n", config::format_diagnostic(d));
     }
     const Standings st = engine::compute_standings(season);
+    const Certainties cert = engine::exact_certainty(season, engine::clinch_records(season));
     std::string text;
     switch (format) {
       case Format::kTable:
-        text = table(season, st);
+        text = table(season, st, cert);
         break;
       case Format::kCsv:
-        text = csv(season, st);
+        text = csv(season, st, cert);
         break;
       case Format::kJson:
-        text = json(season, st);
+        text = json(season, st, cert);
         break;
     }
     write_output(opt->output, text);

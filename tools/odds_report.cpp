@@ -7,6 +7,7 @@
 #include <cstdint>
 #include <nlohmann/json.hpp>
 
+#include "tools/certainty_text.h"
 #include "tools/commands.h"
 #include "tools/output.h"
 
@@ -35,10 +36,12 @@ std::string win_range(const engine::TeamOdds& o) {
   return fmt::format("{}-{}", std::lround(o.wins_p10), std::lround(o.wins_p90));
 }
 
-// Bye and title are lost for sure once the berth is.
-Certainty follows_berth(const OddsTeam& t) {
-  return t.marks.berth == Certainty::kEliminated ? Certainty::kEliminated : Certainty::kOpen;
+// Bye and title are lost for sure once the berth is; the exact computation may say more.
+Certainty follows_berth(const OddsTeam& t, Certainty exact) {
+  return t.marks.berth == Certainty::kEliminated ? Certainty::kEliminated : exact;
 }
+Certainty bye_mark(const OddsTeam& t) { return follows_berth(t, t.certainty.bye); }
+Certainty title_mark(const OddsTeam& t) { return follows_berth(t, t.certainty.title); }
 
 const char* status_name(Certainty c) {
   switch (c) {
@@ -144,6 +147,18 @@ OddsReport make_odds_report(const config::Season& season, const engine::Simulati
   return r;
 }
 
+void attach_certainty(OddsReport& report, std::span<const engine::TeamCertainty> certainty) {
+  for (OddsTeam& t : report.teams) {
+    if (t.index < 0 || static_cast<std::size_t>(t.index) >= certainty.size()) {
+      throw std::invalid_argument("attach_certainty: one entry per team of the season is needed");
+    }
+    t.certainty = certainty[static_cast<std::size_t>(t.index)];
+    t.marks.division = t.certainty.division.mark;
+    t.marks.berth = report.postseason ? t.certainty.berth.mark : Certainty::kOpen;
+  }
+  report.certainty = true;
+}
+
 std::string format_chance(double p, Certainty certainty) {
   if (certainty == Certainty::kClinched) return "clinched";
   if (certainty == Certainty::kEliminated) return "eliminated";
@@ -186,6 +201,10 @@ std::string write_odds_table(const OddsReport& r) {
     if (r.byes) cols.push_back({"Bye", 10});
     cols.push_back({"Title", 10});
   }
+  if (r.certainty) {
+    cols.push_back({"Div M/E", 7});
+    if (r.postseason) cols.push_back({"Post M/E", 8});
+  }
 
   for (const auto& div : r.divisions) {
     out += '\n';
@@ -205,12 +224,17 @@ std::string write_odds_table(const OddsReport& r) {
                                         format_chance(t.odds.division.p, t.marks.division)};
       if (r.postseason) {
         cells.push_back(format_chance(t.odds.postseason.p, t.marks.berth));
-        if (r.byes) cells.push_back(format_chance(t.odds.bye.p, follows_berth(t)));
-        cells.push_back(format_chance(t.odds.title.p, follows_berth(t)));
+        if (r.byes) cells.push_back(format_chance(t.odds.bye.p, bye_mark(t)));
+        cells.push_back(format_chance(t.odds.title.p, title_mark(t)));
+      }
+      if (r.certainty) {
+        cells.push_back(magic_cell(t.certainty.division, false));
+        if (r.postseason) cells.push_back(magic_cell(t.certainty.berth, false));
       }
       std::string line = pad_right(t.name, name_width);
       for (std::size_t i = 0; i < cols.size(); ++i)
         line += "  " + pad_left(cells[i], cols[i].width);
+      line.erase(line.find_last_not_of(' ') + 1);
       out += line + '\n';
     }
   }
@@ -222,15 +246,24 @@ std::string write_odds_table(const OddsReport& r) {
   out +=
       "clinched/eliminated: certain from the standings alone. 100%*/0%*: in all/none of the "
       "simulated seasons, but not yet certain from the standings.\n";
+  if (r.certainty) {
+    out +=
+        "M/E: magic number (further wins that make it certain whatever else happens) / "
+        "elimination number (further losses that end it); -: its own results alone cannot "
+        "decide it.\n";
+  }
   return out;
 }
 
 std::string write_odds_csv(const OddsReport& r) {
   std::string out =
       "team_id,team_name,conference,division,wins,losses,games_left,mean_wins,mean_losses,"
-      "wins_p10,wins_p50,wins_p90,division_p,division_se,division_status";
+      "wins_p10,wins_p50,wins_p90,division_p,division_se,division_status,division_magic,"
+      "division_elimination";
   if (r.postseason) {
-    out += ",postseason_p,postseason_se,postseason_status,bye_p,bye_se,title_p,title_se";
+    out +=
+        ",postseason_p,postseason_se,postseason_status,postseason_magic,postseason_elimination,"
+        "bye_p,bye_se,bye_status,title_p,title_se,title_status";
     for (std::size_t k = 0; k < r.round_names.size(); ++k) {
       out += fmt::format(",round{}_p,round{}_se", k + 1, k + 1);
     }
@@ -240,15 +273,21 @@ std::string write_odds_csv(const OddsReport& r) {
     for (int row : div.rows) {
       const OddsTeam& t = r.teams[row];
       const auto& o = t.odds;
-      out += fmt::format("{},{},{},{},{},{},{},{:.3f},{:.3f},{:g},{:g},{:g},{:.6f},{:.6f},{}",
+      const auto& c = t.certainty;
+      out += fmt::format("{},{},{},{},{},{},{},{:.3f},{:.3f},{:g},{:g},{:g},{:.6f},{:.6f},{},{},{}",
                          csv_field(t.id), csv_field(t.name), csv_field(t.conference_id),
                          csv_field(t.division_id), t.wins, t.losses, t.games_left, o.mean_wins,
                          o.mean_losses, o.wins_p10, o.wins_p50, o.wins_p90, o.division.p,
-                         o.division.se, status_name(t.marks.division));
+                         o.division.se, status_name(t.marks.division),
+                         r.certainty ? number_field(c.division.magic) : "",
+                         r.certainty ? number_field(c.division.elimination) : "");
       if (r.postseason) {
-        out += fmt::format(",{:.6f},{:.6f},{},{:.6f},{:.6f},{:.6f},{:.6f}", o.postseason.p,
-                           o.postseason.se, status_name(t.marks.berth), o.bye.p, o.bye.se,
-                           o.title.p, o.title.se);
+        out += fmt::format(",{:.6f},{:.6f},{},{},{},{:.6f},{:.6f},{},{:.6f},{:.6f},{}",
+                           o.postseason.p, o.postseason.se, status_name(t.marks.berth),
+                           r.certainty ? number_field(c.berth.magic) : "",
+                           r.certainty ? number_field(c.berth.elimination) : "", o.bye.p, o.bye.se,
+                           status_name(bye_mark(t)), o.title.p, o.title.se,
+                           status_name(title_mark(t)));
         for (std::size_t k = 0; k < r.round_names.size(); ++k) {
           const engine::Probability p =
               k < o.reached_round.size() ? o.reached_round[k] : engine::Probability{};
@@ -300,14 +339,28 @@ std::string write_odds_json(const OddsReport& r) {
             {"wins_p90", o.wins_p90}}},
       };
       ordered_json division = chance(o.division);
+      // Magic and elimination numbers: null when they do not exist (or were not computed).
+      auto numbers = [&](ordered_json& j, const engine::OutcomeCertainty& c) {
+        if (!r.certainty) return;
+        j["magic_number"] = c.magic >= 0 ? ordered_json(c.magic) : ordered_json(nullptr);
+        j["elimination_number"] =
+            c.elimination >= 0 ? ordered_json(c.elimination) : ordered_json(nullptr);
+        j["proof_complete"] = c.exact;
+      };
       division["status"] = status_name(t.marks.division);
+      numbers(division, t.certainty.division);
       team["division_title"] = division;
       if (r.postseason) {
         ordered_json berth = chance(o.postseason);
         berth["status"] = status_name(t.marks.berth);
+        numbers(berth, t.certainty.berth);
         team["postseason"] = berth;
-        team["bye"] = chance(o.bye);
-        team["title"] = chance(o.title);
+        ordered_json bye = chance(o.bye);
+        bye["status"] = status_name(bye_mark(t));
+        team["bye"] = bye;
+        ordered_json title = chance(o.title);
+        title["status"] = status_name(title_mark(t));
+        team["title"] = title;
         ordered_json rounds = ordered_json::array();
         for (std::size_t k = 0; k < r.round_names.size(); ++k) {
           const engine::Probability p =

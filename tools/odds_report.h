@@ -12,6 +12,7 @@
 #include <vector>
 
 #include "config/season.h"
+#include "engine/certainty.h"
 #include "engine/clinch.h"
 #include "engine/simulate.h"
 
@@ -32,6 +33,7 @@ struct OddsTeam {
   std::string division_id, division_name;
   int wins = 0, losses = 0, games_left = 0;  // from the played games and the schedule
   engine::ClinchMarks marks;                 // certain by the standings alone
+  engine::TeamCertainty certainty;           // exact marks and numbers (attach_certainty)
   engine::TeamOdds odds;
 };
 
@@ -51,6 +53,7 @@ struct OddsReport {
   std::uint64_t games_simulated = 0, extra_innings_games = 0, drawn_games = 0;
   bool postseason = false;  // the season has a postseason (else only division odds)
   bool byes = false;        // some conference gives byes
+  bool certainty = false;   // attach_certainty was called: exact marks, magic numbers
   std::vector<std::string> round_names;
   std::vector<OddsTeam> teams;          // Season::teams order (only the selected ones)
   std::vector<OddsDivision> divisions;  // Season::divisions order (only those with rows)
@@ -63,6 +66,10 @@ OddsReport make_odds_report(const config::Season& season, const engine::Simulati
                             std::span<const engine::ClinchRecord> records,
                             std::span<const engine::ClinchMarks> marks, double target_se,
                             const std::string& only_group = {});
+
+// Replaces the marks of every row by the exact ones (engine/exact_certainty; one entry per team
+// of the season) and adds the magic and elimination numbers and the bye and title marks.
+void attach_certainty(OddsReport& report, std::span<const engine::TeamCertainty> certainty);
 
 // A probability as the table shows it: "clinched" / "eliminated" when certain by the standings;
 // "100%*" / "0%*" when every (or no) simulated season gave it but the standings do not prove it;
