@@ -128,15 +128,18 @@ class Solver {
   void focus(const Contest& c, int x) {
     contest_ = &c;
     x_ = x;
+    if (c.teams == local_teams_) return;  // the games among them are already tabled
+    local_teams_ = c.teams;
     const int m = static_cast<int>(c.teams.size());
     local_.assign(static_cast<std::size_t>(m) * m, 0);
-    position_.assign(records_.size(), -1);
+    position_.resize(records_.size(), -1);
     for (int i = 0; i < m; ++i) position_[c.teams[i]] = i;
     for (int i = 0; i < m; ++i) {
       for (const auto& [o, count] : opponents_[c.teams[i]]) {
         if (position_[o] >= 0) local_[static_cast<std::size_t>(i) * m + position_[o]] = count;
       }
     }
+    for (int i = 0; i < m; ++i) position_[c.teams[i]] = -1;
   }
 
   int r(int i, int j) const {
@@ -246,7 +249,7 @@ class Solver {
       for (int i : open) {
         if (!set.has(i) && set.x_qualifies_with(i)) return true;  // not maximal
       }
-      ++flows_;
+      if (++flows_ > limits_.flows) return false;
       alive = can_hold(set);
       return true;
     }
@@ -319,7 +322,7 @@ class Solver {
         const int i = open[j];
         if (set.has(i) && !set.x_qualifies_without(i)) return true;  // not minimal
       }
-      ++flows_;
+      if (++flows_ > limits_.flows) return false;
       threat = can_reach(set);
       return true;
     }
@@ -393,10 +396,11 @@ class Solver {
   std::vector<std::vector<std::pair<int, int>>> opponents_;  // per team: (opponent, games left)
   const Contest* contest_ = nullptr;
   int x_ = 0;
-  std::vector<int> local_;     // games left between contest members, m x m
-  std::vector<int> position_;  // league team -> contest position, -1 outside
-  std::vector<int> cap_;       // eliminated(): wins each rival may still take
-  std::vector<int> need_;      // clinched(): wins each rival still needs
+  std::vector<int> local_teams_;  // the contest whose games local_ holds
+  std::vector<int> local_;        // games left between contest members, m x m
+  std::vector<int> position_;     // league team -> contest position, -1 outside
+  std::vector<int> cap_;          // eliminated(): wins each rival may still take
+  std::vector<int> need_;         // clinched(): wins each rival still needs
   int x_losses_ = 0;
   std::vector<int> held_;  // search_alive: rivals kept at or below x on this branch
   int held_games_ = 0, held_cap_ = 0, held_x_ = 0;
@@ -466,6 +470,10 @@ std::vector<TeamCertainty> exact_certainty(const config::Season& season,
     c.division.assign(c.teams.size(), 0);
     for (std::size_t x = 0; x < c.teams.size(); ++x) {
       const int t = c.teams[x];
+      if (static_cast<int>(c.teams.size()) > limits.contest_size) {
+        out[t].division.exact = false;  // too large to table: no mark (sound)
+        continue;
+      }
       out[t].division = answer(solver, c, static_cast<int>(x), records[t].remaining);
     }
   }

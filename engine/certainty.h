@@ -75,9 +75,9 @@ struct TeamCertainty {
 
 // Work limits of one question (one team, one outcome, one count of own results).
 struct CertaintyLimits {
-  int flows = 4096;         // flow tests
-  int nodes = 1 << 18;      // branch-and-bound nodes
-  int contest_size = 4000;  // larger conferences get no exact postseason answer
+  int flows = 4096;        // flow tests
+  int nodes = 1 << 18;     // branch-and-bound nodes
+  int contest_size = 500;  // larger divisions or conferences get no mark (sound), exact = false
 };
 
 // Every team's marks and numbers (Season::teams order). `records` has one entry per team

@@ -13,6 +13,7 @@
 #include <algorithm>
 #include <catch2/catch.hpp>
 #include <cstdint>
+#include <stdexcept>
 #include <string>
 #include <utility>
 #include <vector>
@@ -137,6 +138,49 @@ TEST_CASE("two teams: magic and elimination numbers are G + 1 - W_leader - L_cha
       if (lead_w == 90 && chase_l == 66) CHECK(c[0].division.magic == 7);  // the example
     }
   }
+}
+
+TEST_CASE("a search stopped at its work limit gives no mark and says so") {
+  // The worked example of REFERENCE_VALUES.md section 6 again: D's elimination needs a search
+  // (here the counting bound of the set {A, B, C} settles it: 53 + 9 > 3 x 20).
+  Season s = league({{4}}, 1, 0);
+  add_games(s, 0, 1, 3);
+  add_games(s, 0, 2, 3);
+  add_games(s, 0, 3, 1);
+  add_games(s, 1, 2, 3);
+  add_games(s, 1, 3, 1);
+  add_games(s, 2, 3, 2);
+  const std::vector<ClinchRecord> r = {{18, 16, 7}, {18, 16, 7}, {17, 16, 8}, {16, 21, 4}};
+  standfast::engine::CertaintyLimits none;
+  none.flows = 0;
+  none.nodes = 0;
+  const auto c = exact_certainty(s, r, none);
+  CHECK(c[3].division.mark == Certainty::kOpen);
+  CHECK_FALSE(c[3].division.exact);
+  standfast::engine::CertaintyLimits small;
+  small.contest_size = 3;  // the division has 4 teams
+  const auto d = exact_certainty(s, r, small);
+  CHECK(d[3].division.mark == Certainty::kOpen);
+  CHECK_FALSE(d[3].division.exact);
+}
+
+TEST_CASE("edge cases: no postseason, a one-team division, a team with no games") {
+  // Common practice: a one-team division is won; without a postseason there is no berth mark.
+  Season s = league({{1, 2}}, 1, 0, false);
+  add_games(s, 1, 2, 2);
+  const std::vector<ClinchRecord> r = {{0, 0, 0}, {3, 1, 2}, {1, 3, 2}};
+  const auto c = exact_certainty(s, r);
+  CHECK(c[0].division.mark == Certainty::kClinched);
+  CHECK(c[0].division.magic == 0);
+  CHECK(c[0].berth.mark == Certainty::kOpen);
+  CHECK(c[1].berth.magic == -1);
+  // T1 3-1 and T2 1-3 with 2 games between them: T2 can only tie (3-3): T1 is not clinched,
+  // T2 is not eliminated; one T1 win settles it (magic 1, T2's elimination number 1).
+  CHECK(c[1].division.mark == Certainty::kOpen);
+  CHECK(c[2].division.mark == Certainty::kOpen);
+  CHECK(c[1].division.magic == 1);
+  CHECK(c[2].division.elimination == 1);
+  CHECK_THROWS_AS(exact_certainty(s, std::vector<ClinchRecord>(2)), std::invalid_argument);
 }
 
 namespace {
