@@ -17,6 +17,7 @@
 #include "tools/commands.h"
 #include "tools/odds_report.h"
 #include "tools/output.h"
+#include "tools/processes.h"
 #include "tools/progress.h"
 
 namespace standfast::tools {
@@ -52,9 +53,13 @@ void run_odds(const OddsOptions& opt) {
     throw UsageError(fmt::format("--threads: expected 0 (all cores) or more, got {}", opt.threads));
   }
 
+  // In an MPI run every rank does the same work up to the simulation, plays its share of the
+  // seasons, and rank 0 alone prints warnings, progress and the report.
+  const bool lead = process_rank() == 0;
   const config::Season season = config::load_season(opt.season_file);
-  for (const auto& w : season.warnings) {
-    fmt::print(stderr, "warning: {}\n", config::format_diagnostic(w));
+  if (lead) {
+    for (const auto& w : season.warnings)
+      fmt::print(stderr, "warning: {}\n", config::format_diagnostic(w));
   }
   if (!opt.group.empty() &&
       std::none_of(season.groups.begin(), season.groups.end(),
@@ -86,8 +91,13 @@ void run_odds(const OddsOptions& opt) {
   run.seasons = opt.seasons;
   run.target_se = opt.target_se;
   run.threads = opt.threads;
-  run.progress = [&bar](std::uint64_t done, std::uint64_t total) { bar.update(done, total); };
+  if (lead)
+    run.progress = [&bar](std::uint64_t done, std::uint64_t total) { bar.update(done, total); };
+  run.rank = process_rank();
+  run.ranks = process_count();
+  if (run.ranks > 1) run.combine = sum_over_processes;
   const engine::SimulationResult result = engine::simulate(plan, run);
+  if (!lead) return;
   bar.finish();
 
   OddsReport report = make_odds_report(season, result, records, marks, opt.target_se, opt.group);

@@ -6,9 +6,11 @@
 
 #include "config/load.h"
 #include "tools/commands.h"
+#include "tools/processes.h"
 
 int main(int argc, char** argv) {
   using namespace standfast;
+  const tools::ProcessGroup processes(&argc, &argv);  // MPI_Init/MPI_Finalize in an MPI build
   CLI::App app{
       "standfast: Monte Carlo season and standings simulator.\n"
       "Odds are model estimates under stated assumptions, not advice for wagering."};
@@ -17,6 +19,7 @@ int main(int argc, char** argv) {
   tools::add_standings_command(app);
   tools::add_fit_command(app);
   tools::add_odds_command(app);
+  tools::add_backtest_command(app);
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
