@@ -19,6 +19,7 @@ void add_check_command(CLI::App& app);      // validate a season file, print a s
 void add_standings_command(CLI::App& app);  // standings by division
 void add_fit_command(CLI::App& app);        // fitted scoring models and diagnostics
 void add_odds_command(CLI::App& app);       // the main job: simulated postseason odds
+void add_backtest_command(CLI::App& app);   // calibration of the odds against outcomes
 
 }  // namespace standfast::tools
 

@@ -1,0 +1,63 @@
+// The calibration backtest: synthetic seasons from known true strengths, the odds at a chosen
+// point of each, the real end of each season played from the truth, and how well the odds
+// matched it: a reliability table by probability decile with 95% intervals, and the Brier score
+// (Brier 1950, Monthly Weather Review 78(1) 1-3) with its skill against a naive forecast from
+// the standings at that point, for division titles, postseason berths and titles.
+#ifndef STANDFAST_TOOLS_BACKTEST_H
+#define STANDFAST_TOOLS_BACKTEST_H
+
+#include <cstdint>
+#include <string>
+#include <vector>
+
+namespace standfast::tools {
+
+struct BacktestOptions {
+  int runs = 200;                 // synthetic seasons
+  std::uint64_t seasons = 2000;   // simulated seasons behind each forecast
+  double at = 0.5;                // share of each season's games played when the odds are made
+  std::uint64_t seed = 20260101;  // truth, schedule, scores and simulations all follow from it
+  int threads = 0;
+};
+
+struct ReliabilityBin {
+  double lo = 0, hi = 0;  // forecasts in [lo, hi) (the last bin includes 1)
+  std::uint64_t forecasts = 0;
+  double mean_forecast = 0, observed = 0;
+  // 95% interval of the observed share if the forecasts are calibrated: mean forecast
+  // +- 1.959964 sqrt(sum p (1 - p)) / count (forecasts treated as independent).
+  double interval_lo = 0, interval_hi = 0;
+  bool inside = true;
+};
+
+struct EventScore {
+  std::string event;  // "division", "postseason", "title"
+  std::vector<ReliabilityBin> bins;
+  std::uint64_t forecasts = 0;
+  double mean_forecast = 0, observed = 0;
+  double brier = 0, naive_brier = 0, skill = 0;  // skill = 1 - brier / naive_brier
+};
+
+struct BacktestResult {
+  BacktestOptions options;
+  int teams = 0, games_per_team = 0;
+  std::vector<EventScore> events;
+};
+
+// Runs the backtest. Throws UsageError (tools/commands.h) for options out of range.
+BacktestResult run_backtest(const BacktestOptions& options);
+
+// Mean squared difference between forecasts and 0/1 outcomes (Brier 1950).
+double brier_score(const std::vector<double>& forecast, const std::vector<int>& outcome);
+
+// Ten bins of width 0.1 with the calibrated 95% interval of each (see ReliabilityBin).
+std::vector<ReliabilityBin> reliability_table(const std::vector<double>& forecast,
+                                              const std::vector<int>& outcome);
+
+std::string write_backtest_table(const BacktestResult& r);
+std::string write_backtest_csv(const BacktestResult& r);
+std::string write_backtest_json(const BacktestResult& r);
+
+}  // namespace standfast::tools
+
+#endif  // STANDFAST_TOOLS_BACKTEST_H
