@@ -20,6 +20,8 @@ void add_standings_command(CLI::App& app);  // standings by division
 void add_fit_command(CLI::App& app);        // fitted scoring models and diagnostics
 void add_odds_command(CLI::App& app);       // the main job: simulated postseason odds
 void add_backtest_command(CLI::App& app);   // calibration of the odds against outcomes
+// replay, movers and report: the odds history and the report page (tools/cmd_history.cpp)
+void add_history_commands(CLI::App& app);
 
 }  // namespace standfast::tools
 

@@ -20,6 +20,7 @@ int main(int argc, char** argv) {
   tools::add_fit_command(app);
   tools::add_odds_command(app);
   tools::add_backtest_command(app);
+  tools::add_history_commands(app);
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {

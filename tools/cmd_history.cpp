@@ -1,0 +1,405 @@
+// The commands over the odds history (tools/history.h):
+//   `standfast replay FILE`  runs the season at every k days of its played games, records each
+//                            date, and writes the last date's odds like `standfast odds`;
+//   `standfast movers FILE`  the teams and games that moved the chances most between two dates;
+//   `standfast report FILE`  one odds run, recorded, turned into an HTML page and Markdown.
+#include <fmt/core.h>
+
+#include <chrono>
+#include <memory>
+#include <nlohmann/json.hpp>
+#include <string>
+#include <vector>
+
+#include "config/as_of.h"
+#include "config/load.h"
+#include "tools/commands.h"
+#include "tools/history.h"
+#include "tools/movers.h"
+#include "tools/odds_report.h"
+#include "tools/odds_run.h"
+#include "tools/output.h"
+#include "tools/report_page.h"
+
+namespace standfast::tools {
+namespace {
+
+constexpr std::uint64_t DEFAULT_SEED = 20260101;  // the same default as `standfast odds`
+constexpr std::uint64_t DEFAULT_SEASONS = 100000;
+constexpr std::uint64_t MAX_SEASONS = 1'000'000'000;
+constexpr std::uint64_t DEFAULT_GAME_SEASONS = 10000;
+
+struct RunFlags {
+  std::string season_file;
+  std::uint64_t seasons = DEFAULT_SEASONS;
+  std::uint64_t seed = DEFAULT_SEED;
+  int threads = 0;
+  std::string history;
+};
+
+void add_run_flags(CLI::App* cmd, RunFlags& f) {
+  cmd->add_option("season", f.season_file, "Season file (YAML)")->required();
+  cmd->add_option("--seasons", f.seasons,
+                  fmt::format("Simulated seasons per run (default {})", DEFAULT_SEASONS));
+  cmd->add_option("--seed", f.seed, fmt::format("Random seed (default {})", DEFAULT_SEED));
+  cmd->add_option("--threads", f.threads, "Worker threads (default 0 = all cores)");
+  cmd->add_option("--history", f.history,
+                  "History file (SQLite; default $XDG_DATA_HOME/standfast/history.sqlite or "
+                  "~/.local/share/standfast/history.sqlite)");
+}
+
+engine::RunOptions run_options(const RunFlags& f, std::uint64_t seasons) {
+  if (seasons < 1 || seasons > MAX_SEASONS) {
+    throw UsageError(fmt::format("--seasons: expected 1 to {}, got {}", MAX_SEASONS, seasons));
+  }
+  if (f.threads < 0) {
+    throw UsageError(fmt::format("--threads: expected 0 (all cores) or more, got {}", f.threads));
+  }
+  engine::RunOptions run;
+  run.seed = f.seed;
+  run.seasons = seasons;
+  run.threads = f.threads;
+  return run;
+}
+
+std::filesystem::path history_path(const RunFlags& f) {
+  return f.history.empty() ? default_history_path() : std::filesystem::path(f.history);
+}
+
+config::Season load(const RunFlags& f) {
+  config::Season season = config::load_season(f.season_file);
+  for (const auto& w : season.warnings) {
+    fmt::print(stderr, "warning: {}\n", config::format_diagnostic(w));
+  }
+  return season;
+}
+
+std::string write_report(const OddsReport& report, Format format) {
+  switch (format) {
+    case Format::kCsv:
+      return write_odds_csv(report);
+    case Format::kJson:
+      return write_odds_json(report);
+    case Format::kTable:
+      break;
+  }
+  return write_odds_table(report);
+}
+
+// ---- replay ----
+
+struct ReplayFlags : RunFlags {
+  int every = 7;
+  std::string from;
+  std::string format = "table";
+  std::string output;
+};
+
+// The as-of dates of a replay: the default as-of date (the morning after the last played game)
+// and every `every` days before it, down to the first date after the first played game (or
+// `from`).
+std::vector<config::DayNumber> replay_dates(const config::Season& season, int every,
+                                            std::optional<config::DayNumber> from) {
+  const auto last = config::default_as_of(season);
+  std::optional<config::DayNumber> first_played;
+  for (const config::Game& g : season.games) {
+    if (g.played && g.date) first_played = std::min(first_played.value_or(*g.date), *g.date);
+  }
+  if (!last || !first_played) {
+    throw UsageError(fmt::format("{}: no played game to replay", season.file));
+  }
+  const config::DayNumber earliest = from ? *from : *first_played + 1;
+  std::vector<config::DayNumber> dates;
+  for (config::DayNumber d = *last; d >= earliest; d -= every) dates.insert(dates.begin(), d);
+  if (dates.empty()) dates.push_back(*last);
+  return dates;
+}
+
+void run_replay(const ReplayFlags& f) {
+  const Format format = parse_format(f.format);
+  if (f.every < 1 || f.every > 366) {
+    throw UsageError(fmt::format("--every: expected 1 to 366 days, got {}", f.every));
+  }
+  std::optional<config::DayNumber> from;
+  if (!f.from.empty()) {
+    from = config::parse_date(f.from);
+    if (!from)
+      throw UsageError(fmt::format("--from: expected a date YYYY-MM-DD, got '{}'", f.from));
+  }
+  const engine::RunOptions run = run_options(f, f.seasons);
+  const config::Season season = load(f);
+  const auto dates = replay_dates(season, f.every, from);
+  History history = History::open(history_path(f), true);
+  fmt::print(stderr, "replay: {} as-of dates, {} seasons each, into {}\n", dates.size(),
+             group_digits(f.seasons), history.file().string());
+  const auto start = std::chrono::steady_clock::now();
+  std::string last_text;
+  for (std::size_t i = 0; i < dates.size(); ++i) {
+    const auto t0 = std::chrono::steady_clock::now();
+    const OddsRun odds = run_odds_at(season, dates[i], run, 0.0);
+    history.record(history_run(odds, season));
+    const double secs =
+        std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+    fmt::print(stderr, "  {}  {:>5} games played  largest SE {:.2f} pp  {:.1f} s\n",
+               config::format_date(dates[i]), odds.games_played, 100.0 * odds.result.max_se, secs);
+    if (i + 1 == dates.size()) last_text = write_report(odds.report, format);
+  }
+  fmt::print(stderr, "replay: {:.1f} s in all\n",
+             std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count());
+  write_output(f.output, last_text);
+}
+
+// ---- movers ----
+
+struct MoversFlags : RunFlags {
+  std::string from, to;
+  std::size_t top = 5;
+  std::uint64_t game_seasons = DEFAULT_GAME_SEASONS;
+  std::string format = "table";
+  std::string output;
+};
+
+// The two runs to compare: the named dates, else the last recorded date and the one before it
+// (or before `to`).
+std::pair<HistoryRun, HistoryRun> pick_runs(const std::vector<HistoryRun>& runs,
+                                            const std::string& from_text,
+                                            const std::string& to_text, const std::string& file) {
+  auto dates_known = [&] {
+    std::string s;
+    for (const auto& r : runs) s += (s.empty() ? "" : ", ") + config::format_date(r.as_of);
+    return s.empty() ? std::string("none") : s;
+  };
+  auto find = [&](const std::string& text, const char* option) -> std::size_t {
+    const auto d = config::parse_date(text);
+    if (!d) throw UsageError(fmt::format("{}: expected a date YYYY-MM-DD, got '{}'", option, text));
+    for (std::size_t i = 0; i < runs.size(); ++i) {
+      if (runs[i].as_of == *d) return i;
+    }
+    throw UsageError(fmt::format("{}: {} has no run as of {} for this season (dates: {})", option,
+                                 file, text, dates_known()));
+  };
+  if (runs.size() < 2) {
+    throw UsageError(fmt::format(
+        "{}: movers need two recorded as-of dates of this season, the history has {} (dates: "
+        "{}); run `standfast replay` or two odds runs with --record",
+        file, runs.size(), dates_known()));
+  }
+  const std::size_t to = to_text.empty() ? runs.size() - 1 : find(to_text, "--to");
+  std::size_t from = 0;
+  if (from_text.empty()) {
+    if (to == 0) {
+      throw UsageError(fmt::format("--to: {} is the first recorded date; give --from", to_text));
+    }
+    from = to - 1;
+  } else {
+    from = find(from_text, "--from");
+  }
+  if (runs[from].as_of >= runs[to].as_of) {
+    throw UsageError("--from: must be earlier than --to");
+  }
+  return {runs[from], runs[to]};
+}
+
+nlohmann::ordered_json change_json(const Change& c) {
+  return {{"before", c.before}, {"after", c.after}, {"change", c.change}, {"se", c.se}};
+}
+
+std::string write_movers_json(const Movers& m) {
+  using nlohmann::ordered_json;
+  ordered_json teams_p = ordered_json::array(), teams_t = ordered_json::array(),
+               games = ordered_json::array();
+  for (const auto& mv : m.by_postseason) {
+    teams_p.push_back({{"id", mv.id},
+                       {"name", mv.name},
+                       {"postseason", change_json(mv.postseason)},
+                       {"title", change_json(mv.title)}});
+  }
+  for (const auto& mv : m.by_title) {
+    teams_t.push_back({{"id", mv.id},
+                       {"name", mv.name},
+                       {"postseason", change_json(mv.postseason)},
+                       {"title", change_json(mv.title)}});
+  }
+  for (const auto& g : m.games) {
+    games.push_back({{"date", g.date},
+                     {"home", g.home_id},
+                     {"away", g.away_id},
+                     {"home_runs", g.home_runs},
+                     {"away_runs", g.away_runs},
+                     {"team", g.team_id},
+                     {"postseason", change_json(g.postseason)}});
+  }
+  ordered_json doc = {{"schema_version", ODDS_SCHEMA_VERSION},
+                      {"caution", std::string(ODDS_CAUTION)},
+                      {"from", config::format_date(m.from)},
+                      {"to", config::format_date(m.to)},
+                      {"by_postseason", teams_p},
+                      {"by_title", teams_t},
+                      {"games", games}};
+  return doc.dump(2) + '\n';
+}
+
+std::string write_movers_table(const Movers& m) {
+  std::string out = fmt::format("Movers from {} to {}\n{}\n", config::format_date(m.from),
+                                config::format_date(m.to), ODDS_CAUTION);
+  auto block = [&](const char* title, const std::vector<TeamMove>& v, bool t) {
+    out += fmt::format("\n{}\n{:<28} {:>8} {:>8} {:>16}\n", title, "Team", "Before", "After",
+                       "Change (pp)");
+    for (const auto& mv : v) {
+      const Change& c = t ? mv.title : mv.postseason;
+      out += fmt::format("{:<28} {:>7.1f}% {:>7.1f}% {:>+9.1f} ± {:.1f}\n", mv.name, 100 * c.before,
+                         100 * c.after, 100 * c.change, 100 * c.se);
+    }
+  };
+  block("Postseason chance", m.by_postseason, false);
+  block("Title chance", m.by_title, true);
+  if (!m.games.empty()) {
+    out +=
+        "\nResults that mattered (postseason chance with the result minus with the game to play)\n";
+    for (const auto& g : m.games) {
+      out += fmt::format("{}  {} {}, {} {}  {:<24} {:>+6.1f} ± {:.1f}\n", g.date, g.away_id,
+                         g.away_runs, g.home_id, g.home_runs, g.team_name,
+                         100 * g.postseason.change, 100 * g.postseason.se);
+    }
+  }
+  out += "\nChanges in percentage points ± standard error (the two runs taken as independent).\n";
+  return out;
+}
+
+std::size_t check_top(std::size_t top) {
+  if (top < 1 || top > 1000)
+    throw UsageError(fmt::format("--top: expected 1 to 1000, got {}", top));
+  return top;
+}
+
+void run_movers(const MoversFlags& f) {
+  if (f.format != "table" && f.format != "json" && f.format != "markdown") {
+    throw UsageError(fmt::format("--format: expected table, json or markdown, got '{}'", f.format));
+  }
+  check_top(f.top);
+  const config::Season season = load(f);
+  const History history = History::open(history_path(f), false);
+  const auto runs = history.runs(season.league.name, season.league.season_label);
+  const auto [before, after] = pick_runs(runs, f.from, f.to, history.file().string());
+  Movers m = compare_runs(before, after, f.top);
+  if (f.game_seasons > 0) add_game_effects(m, season, run_options(f, f.game_seasons), f.top);
+  std::string text;
+  if (f.format == "json") {
+    text = write_movers_json(m);
+  } else if (f.format == "markdown") {
+    ReportPage page;
+    page.as_of = m.to;
+    page.movers = m;
+    text = write_movers_table(m);
+    text = write_report_markdown(page);
+  } else {
+    text = write_movers_table(m);
+  }
+  write_output(f.output, text);
+}
+
+// ---- report ----
+
+struct ReportFlags : RunFlags {
+  std::string as_of;
+  double target_se = 0;
+  std::size_t top = 5;
+  std::uint64_t game_seasons = DEFAULT_GAME_SEASONS;
+  std::string output;
+  std::string markdown;
+};
+
+void run_report(const ReportFlags& f) {
+  check_top(f.top);
+  if (!(f.target_se >= 0.0 && f.target_se < 0.5)) {
+    throw UsageError(
+        fmt::format("--target-se: expected 0 (off) or a value in (0, 0.5), got {}", f.target_se));
+  }
+  engine::RunOptions run = run_options(f, f.seasons);
+  run.target_se = f.target_se;
+  const config::Season season = load(f);
+  const config::DayNumber as_of = resolve_as_of(season, f.as_of);
+  History history = History::open(history_path(f), true);
+
+  const OddsRun odds = run_odds_at(season, as_of, run, f.target_se);
+  history.record(history_run(odds, season));
+
+  ReportPage page;
+  page.report = odds.report;
+  page.as_of = as_of;
+  page.model = model_label(season.model);
+  for (auto& r : history.runs(season.league.name, season.league.season_label)) {
+    if (r.as_of <= as_of) page.series.push_back(std::move(r));
+  }
+  if (page.series.size() >= 2) {
+    Movers m = compare_runs(page.series[page.series.size() - 2], page.series.back(), f.top);
+    if (f.game_seasons > 0) add_game_effects(m, season, run_options(f, f.game_seasons), f.top);
+    page.movers = std::move(m);
+  }
+  const std::string html = write_report_html(page);
+  const std::string markdown = f.markdown.empty() ? std::string{} : write_report_markdown(page);
+  write_output(f.output, html);
+  if (!f.markdown.empty()) write_output(f.markdown, markdown);
+}
+
+}  // namespace
+
+void add_history_commands(CLI::App& app) {
+  {
+    auto f = std::make_shared<ReplayFlags>();
+    auto* cmd = app.add_subcommand(
+        "replay",
+        "Run the season at every few days of its played games (fitting on the games up to each "
+        "date, simulating the rest), record each date in the history, and print the last "
+        "date's odds.");
+    add_run_flags(cmd, *f);
+    cmd->add_option("--every", f->every, "Days between as-of dates (default 7)");
+    cmd->add_option("--from", f->from,
+                    "Earliest as-of date (YYYY-MM-DD; default the day after "
+                    "the first played game)");
+    cmd->add_option("--format", f->format, "Last date's odds: table, csv or json (default table)");
+    cmd->add_option("-o,--output", f->output, "Write the last date's odds to this file");
+    cmd->callback([f] { run_replay(*f); });
+  }
+  {
+    auto f = std::make_shared<MoversFlags>();
+    auto* cmd = app.add_subcommand(
+        "movers",
+        "From the history: the teams whose postseason and title chances moved most between two "
+        "as-of dates, and the results in between that moved them most.");
+    add_run_flags(cmd, *f);
+    f->seasons = DEFAULT_GAME_SEASONS;
+    cmd->add_option("--from", f->from, "Earlier as-of date (default: the one before --to)");
+    cmd->add_option("--to", f->to, "Later as-of date (default: the last recorded)");
+    cmd->add_option("--top", f->top, "Teams and games listed (default 5)");
+    cmd->add_option("--game-seasons", f->game_seasons,
+                    fmt::format("Simulated seasons per result weighed (default {}; 0 = do not "
+                                "weigh results)",
+                                DEFAULT_GAME_SEASONS));
+    cmd->add_option("--format", f->format, "table, markdown or json (default table)");
+    cmd->add_option("-o,--output", f->output, "Write to this file instead of standard output");
+    cmd->callback([f] { run_movers(*f); });
+  }
+  {
+    auto f = std::make_shared<ReportFlags>();
+    auto* cmd = app.add_subcommand(
+        "report",
+        "One odds run, recorded in the history, written as a self-contained HTML page (odds "
+        "table, final-wins charts, chances through the season, movers) and optionally Markdown.");
+    add_run_flags(cmd, *f);
+    cmd->add_option("--as-of", f->as_of,
+                    "As-of date YYYY-MM-DD: games on or after it count as not yet played "
+                    "(default: the day after the last played game)");
+    cmd->add_option("--target-se", f->target_se, "Stop early below this standard error");
+    cmd->add_option("--top", f->top, "Teams and games in the movers (default 5)");
+    cmd->add_option("--game-seasons", f->game_seasons,
+                    fmt::format("Simulated seasons per result weighed in the movers (default {}; "
+                                "0 = do not weigh results)",
+                                DEFAULT_GAME_SEASONS));
+    cmd->add_option("-o,--output", f->output, "The HTML page (default standard output)");
+    cmd->add_option("--markdown", f->markdown, "Also write the table and movers as Markdown here");
+    cmd->callback([f] { run_report(*f); });
+  }
+}
+
+}  // namespace standfast::tools
