@@ -10,10 +10,12 @@
 #include <stdexcept>
 #include <string>
 
+#include "config/as_of.h"
 #include "config/load.h"
 #include "models/fit_report.h"
 #include "models/score_dist.h"
 #include "tools/commands.h"
+#include "tools/odds_run.h"
 #include "tools/output.h"
 
 namespace standfast::tools {
@@ -265,7 +267,7 @@ void add_fit_command(CLI::App& app) {
   auto* cmd =
       app.add_subcommand("fit", "Fit the scoring model to the played games and show diagnostics");
   struct Options {
-    std::string file, format = "table", output;
+    std::string file, format = "table", output, as_of;
     double alpha = 0.05;
   };
   auto opt = std::make_shared<Options>();
@@ -274,12 +276,16 @@ void add_fit_command(CLI::App& app) {
   cmd->add_option("--output", opt->output, "write to this file instead of standard output");
   cmd->add_option("--alpha", opt->alpha, "family-wise level of the goodness-of-fit tests")
       ->capture_default_str();
+  cmd->add_option("--as-of", opt->as_of,
+                  "fit only the games played before this date (YYYY-MM-DD; default: every "
+                  "played game)");
   cmd->callback([opt] {
     const Format format = parse_format(opt->format);
     if (!(opt->alpha > 0.0 && opt->alpha < 1.0)) {
       throw UsageError(fmt::format("--alpha: must be in (0, 1), got {}", opt->alpha));
     }
-    const config::Season season = config::load_season(opt->file);
+    const config::Season full = config::load_season(opt->file);
+    const config::Season season = config::season_as_of(full, resolve_as_of(full, opt->as_of));
     models::FitReport report;
     try {
       report = models::fit_report(season, opt->alpha);

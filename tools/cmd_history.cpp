@@ -257,8 +257,9 @@ std::string write_movers_table(const Movers& m) {
     out +=
         "\nResults that mattered (postseason chance with the result minus with the game to play)\n";
     for (const auto& g : m.games) {
-      out += fmt::format("{}  {} {}, {} {}  {:<24} {:>+6.1f} ± {:.1f}\n", g.date, g.away_id,
-                         g.away_runs, g.home_id, g.home_runs, g.team_name,
+      const std::string game =
+          fmt::format("{} {}, {} {}", g.away_id, g.away_runs, g.home_id, g.home_runs);
+      out += fmt::format("{}  {:<20} {:<28} {:>+6.1f} ± {:.1f}\n", g.date, game, g.team_name,
                          100 * g.postseason.change, 100 * g.postseason.se);
     }
   }

@@ -5,17 +5,17 @@
 
 #include <algorithm>
 #include <cstdint>
+#include <filesystem>
+#include <optional>
 #include <stdexcept>
 #include <string>
 
 #include "config/load.h"
-#include "engine/certainty.h"
-#include "engine/clinch.h"
-#include "engine/plan.h"
 #include "engine/simulate.h"
-#include "models/ratings.h"
 #include "tools/commands.h"
+#include "tools/history.h"
 #include "tools/odds_report.h"
+#include "tools/odds_run.h"
 #include "tools/output.h"
 #include "tools/processes.h"
 #include "tools/progress.h"
@@ -37,6 +37,9 @@ struct OddsOptions {
   std::string format = "table";
   std::string output;
   std::string group;
+  std::string as_of;
+  bool record = false;
+  std::string history;
 };
 
 void run_odds(const OddsOptions& opt) {
@@ -68,22 +71,13 @@ void run_odds(const OddsOptions& opt) {
                                  opt.season_file, opt.group));
   }
 
-  // Problems the validator cannot see (a fit that has nothing to work with, a plan that does
-  // not fit the ratings) are still bad input: exit status 2 through UsageError.
-  engine::Plan plan;
-  try {
-    const models::LeagueRatings ratings = models::fit_ratings(season);
-    plan = engine::compile_plan(season, ratings);
-  } catch (const std::domain_error& e) {
-    throw UsageError(fmt::format("{}: cannot fit the ratings: {}", opt.season_file, e.what()));
-  } catch (const std::invalid_argument& e) {
-    throw UsageError(fmt::format("{}: cannot build the simulation: {}", opt.season_file, e.what()));
+  const config::DayNumber as_of = resolve_as_of(season, opt.as_of);
+  // Open the history before the (possibly long) run, so a bad file stops it at once.
+  std::optional<History> history;
+  if (lead && (opt.record || !opt.history.empty())) {
+    history.emplace(History::open(
+        opt.history.empty() ? default_history_path() : std::filesystem::path(opt.history), true));
   }
-
-  const auto records = engine::clinch_records(season);
-  // Exact marks and magic numbers before the run (engine/certainty.h; milliseconds).
-  const auto certainty = engine::exact_certainty(season, records);
-  const auto marks = engine::certainty_marks(certainty);
 
   ProgressBar bar;
   engine::RunOptions run;
@@ -96,12 +90,12 @@ void run_odds(const OddsOptions& opt) {
   run.rank = process_rank();
   run.ranks = process_count();
   if (run.ranks > 1) run.combine = sum_over_processes;
-  const engine::SimulationResult result = engine::simulate(plan, run);
+  const OddsRun odds = run_odds_at(season, as_of, run, opt.target_se, opt.group);
   if (!lead) return;
   bar.finish();
+  if (history) history->record(history_run(odds, season));
+  const OddsReport& report = odds.report;
 
-  OddsReport report = make_odds_report(season, result, records, marks, opt.target_se, opt.group);
-  attach_certainty(report, certainty);
   std::string text;
   switch (format) {
     case Format::kTable:
@@ -141,6 +135,13 @@ void add_odds_command(CLI::App& app) {
                   "Write to this file (whole or not at all) instead of standard output");
   cmd->add_option("--group", opt->group,
                   "Only the teams of this conference or division (its id in the season file)");
+  cmd->add_option("--as-of", opt->as_of,
+                  "As-of date YYYY-MM-DD, the morning before its games: games on or after it "
+                  "count as not yet played (default: the day after the last played game)");
+  cmd->add_flag("--record", opt->record,
+                "Record the run in the odds history (default file: "
+                "$XDG_DATA_HOME/standfast/history.sqlite or ~/.local/share/...)");
+  cmd->add_option("--history", opt->history, "Record the run in this history file (SQLite)");
   cmd->callback([opt] { run_odds(*opt); });
 }
 

@@ -5,6 +5,7 @@
 #include <stdexcept>
 
 #include "config/as_of.h"
+#include "engine/certainty.h"
 #include "engine/clinch.h"
 #include "engine/plan.h"
 #include "models/ratings.h"
@@ -49,8 +50,11 @@ OddsRun run_odds_at(const config::Season& full, config::DayNumber as_of,
   out.games_played = config::games_played_before(full, as_of);
   out.result = simulate_season(out.season, run);
   const auto records = engine::clinch_records(out.season);
-  const auto marks = engine::simple_clinch(out.season, records);
+  // Exact marks and magic numbers (engine/certainty.h; milliseconds).
+  const auto certainty = engine::exact_certainty(out.season, records);
+  const auto marks = engine::certainty_marks(certainty);
   out.report = make_odds_report(out.season, out.result, records, marks, target_se, only_group);
+  attach_certainty(out.report, certainty);
   return out;
 }
 

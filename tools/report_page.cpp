@@ -52,8 +52,10 @@ std::string exact(double v) { return fmt::format("{}", v); }
 
 std::string pp(double change) { return fmt::format("{:+.1f}", 100.0 * change); }
 
-Certainty follows_berth(const OddsTeam& t) {
-  return t.marks.berth == Certainty::kEliminated ? Certainty::kEliminated : Certainty::kOpen;
+// Bye and title are lost for sure once the berth is; the exact computation may say more (the
+// same rule as the odds table, tools/odds_report.cpp).
+Certainty follows_berth(const OddsTeam& t, Certainty exact) {
+  return t.marks.berth == Certainty::kEliminated ? Certainty::kEliminated : exact;
 }
 
 const char* css_class(double p, Certainty c) {
@@ -89,7 +91,8 @@ engine::Probability chance_of(const OddsTeam& t, const std::string& field) {
 Certainty mark_of(const OddsTeam& t, const std::string& field) {
   if (field == "division") return t.marks.division;
   if (field == "postseason") return t.marks.berth;
-  return follows_berth(t);
+  if (field == "bye") return follows_berth(t, t.certainty.bye);
+  return follows_berth(t, t.certainty.title);
 }
 
 std::string division_title(const OddsDivision& d) {

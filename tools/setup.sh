@@ -10,6 +10,7 @@ packages=(build-essential cmake libtbb-dev libboost-math-dev libboost-graph-dev 
           python3-numpy)
 packages+=(libeigen3-dev)  # sparse Cholesky factorisation of the joint fit (models/joint_fit.cpp)
 packages+=(libsqlite3-dev sqlite3)  # the odds history (tools/history.h) and its tests
+packages+=(chromium)  # headless browser of the report page test (tests/browser/check_report.py)
 missing=()
 for p in "${packages[@]}"; do
   dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
