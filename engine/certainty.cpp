@@ -433,6 +433,10 @@ OutcomeCertainty answer(Solver& solver, const Contest& c, int x, int remaining) 
   out.mark = clinched     ? Certainty::kClinched
              : eliminated ? Certainty::kEliminated
                           : Certainty::kOpen;
+  if (!solver.exact()) {  // the numbers would hit the same limit: not computed
+    out.exact = false;
+    return out;
+  }
   out.magic = eliminated ? -1
                          : smallest(
                                remaining, [&](int k) { return solver.clinched(k); }, clinched);
@@ -460,6 +464,11 @@ std::vector<TeamCertainty> exact_certainty(const config::Season& season,
   }
   std::vector<TeamCertainty> out(n);
   Solver solver(season, records, limits);
+  // Where a search stops at its limit, the counting marks (sufficient conditions) still hold.
+  const std::vector<ClinchMarks> simple = simple_clinch(season, records);
+  const auto fall_back = [&](OutcomeCertainty& o, Certainty counted) {
+    if (!o.exact && o.mark == Certainty::kOpen) o.mark = counted;
+  };
 
   // Divisions: one division, one winner, no at-large berth.
   for (int d : season.divisions) {
@@ -476,6 +485,7 @@ std::vector<TeamCertainty> exact_certainty(const config::Season& season,
       }
       out[t].division = answer(solver, c, static_cast<int>(x), records[t].remaining);
     }
+    for (int t : c.teams) fall_back(out[t].division, simple[t].division);
   }
   if (!season.postseason.enabled) return out;
 
@@ -519,9 +529,12 @@ std::vector<TeamCertainty> exact_certainty(const config::Season& season,
       if (m > limits.contest_size) {
         tc.berth.exact = false;
         tc.bye_exact = false;
+        fall_back(tc.berth, simple[t].berth);
+        if (tc.berth.mark == Certainty::kEliminated) tc.bye = tc.title = Certainty::kEliminated;
         continue;
       }
       tc.berth = answer(solver, c, x, records[t].remaining);
+      fall_back(tc.berth, simple[t].berth);
       const bool berth_out = tc.berth.mark == Certainty::kEliminated;
       tc.title = berth_out ? Certainty::kEliminated
                  : league_qualifiers == 1 && tc.berth.mark == Certainty::kClinched

@@ -75,8 +75,8 @@ struct TeamCertainty {
 
 // Work limits of one question (one team, one outcome, one count of own results).
 struct CertaintyLimits {
-  int flows = 4096;        // flow tests
-  int nodes = 1 << 18;     // branch-and-bound nodes
+  int flows = 1024;        // flow tests
+  int nodes = 1 << 15;     // branch-and-bound nodes
   int contest_size = 500;  // larger divisions or conferences get no mark (sound), exact = false
 };
 

@@ -18,7 +18,10 @@ const char* certainty_word(engine::Certainty c) {
 
 std::string magic_cell(const engine::OutcomeCertainty& c, bool words) {
   if (c.mark != engine::Certainty::kOpen) return words ? certainty_word(c.mark) : "";
-  auto part = [](int n) { return n < 0 ? std::string("-") : fmt::format("{}", n); };
+  // "?": not computed (a search stopped at its work limit); "-": the number does not exist.
+  auto part = [&](int n) {
+    return n >= 0 ? fmt::format("{}", n) : std::string(c.exact ? "-" : "?");
+  };
   return part(c.magic) + "/" + part(c.elimination);
 }
 

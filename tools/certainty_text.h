@@ -13,7 +13,8 @@ namespace standfast::tools {
 const char* certainty_word(engine::Certainty c);
 
 // The table cell of one outcome: "M/E" with the magic number M and the elimination number E,
-// "-" for a number that does not exist (the team's own results cannot decide it alone). A
+// "-" for a number that does not exist (the team's own results cannot decide it alone), "?"
+// for one not computed (a search stopped at its work limit, OutcomeCertainty::exact false). A
 // decided outcome gives its word ("clinched", "eliminated") when `words` is set, else "".
 std::string magic_cell(const engine::OutcomeCertainty& c, bool words);
 
