@@ -120,7 +120,8 @@ std::string table(const Season& s, const Standings& st, const Certainties& cert)
   out +=
       "\nDiv M/E, Post M/E: magic number (further wins that make the division or a postseason "
       "spot certain whatever else happens) / elimination number (further losses that end the "
-      "chance); -: the team's own results alone cannot decide it. clinched/eliminated: certain "
+      "chance); -: the team's own results alone cannot decide it; ?: not computed (work limit). "
+      "clinched/eliminated: certain "
       "from the standings and the remaining schedule (a possible tie is neither).\n";
   return out;
 }

@@ -250,7 +250,7 @@ std::string write_odds_table(const OddsReport& r) {
     out +=
         "M/E: magic number (further wins that make it certain whatever else happens) / "
         "elimination number (further losses that end it); -: its own results alone cannot "
-        "decide it.\n";
+        "decide it; ?: not computed (work limit).\n";
   }
   return out;
 }
