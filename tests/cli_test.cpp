@@ -118,7 +118,11 @@ TEST_CASE("help text, version and warning lines have one form") {
   CHECK(help_text("Simulated seasons", "100000") == "Simulated seasons (default: 100000)");
   CHECK(help_text("The season file (YAML)") == "The season file (YAML)");
   CHECK(version_text().find("season-file format 1") != std::string::npos);
-  standfast::config::Diagnostic d{{"league.yaml", 12, 7}, "games_per_team: 160 stated"};
+  standfast::config::Diagnostic d;
+  d.pos.file = "league.yaml";
+  d.pos.line = 12;
+  d.pos.column = 7;
+  d.message = "games_per_team: 160 stated";
   CHECK(warning_line(d) == "league.yaml:12:7: warning: games_per_team: 160 stated");
 }
 

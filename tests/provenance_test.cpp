@@ -73,7 +73,7 @@ TEST_CASE("no played game: no as-of date; the CSV cells match the header") {
   tools::Provenance p = tools::make_provenance(season);
   CHECK_FALSE(p.as_of.has_value());
   CHECK(p.season_sha256.empty());  // the file does not exist on disk
-  tools::set_model(p, season.model, 1.8);
+  tools::set_model(p, season, 1.8);
   p.seed = 7;
   p.seasons = 1000;
   CHECK(count_commas(tools::provenance_csv_header()) ==
@@ -81,17 +81,22 @@ TEST_CASE("no played game: no as-of date; the CSV cells match the header") {
   const auto j = tools::provenance_json(p);
   CHECK(j["as_of"].is_null());
   CHECK(j["family"] == "weibull");
-  CHECK(j["shape_fitted"] == true);
+  CHECK(j["shape_source"] == "default");  // no game played
   CHECK(j["seed"] == 7);
   CHECK(j["seasons"] == 1000);
   const std::string line = tools::provenance_line(p);
-  CHECK(line.find("model weibull, shape 1.800 (fitted)") != std::string::npos);
+  CHECK(line.find("model weibull, shape 1.800 (default)") != std::string::npos);
   CHECK(line.find("seed 7; 1,000 seasons") != std::string::npos);
   CHECK(line.find("as of (no games played)") != std::string::npos);
 
-  // Poisson and log5 have no shape.
-  config::ModelSpec poisson;
-  poisson.family = config::ScoreFamily::kPoisson;
+  // A shape fixed in the file is "fixed"; Poisson and log5 have no shape.
+  config::Season fixed = season;
+  fixed.model.shape = 2.0;
+  tools::set_model(p, fixed, 2.0);
+  CHECK(p.shape_source == "fixed");
+  config::Season poisson = season;
+  poisson.model.family = config::ScoreFamily::kPoisson;
   tools::set_model(p, poisson, 1.8);
   CHECK_FALSE(p.shape.has_value());
+  CHECK(p.shape_source.empty());
 }

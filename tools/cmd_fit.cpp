@@ -330,7 +330,7 @@ void add_fit_command(CLI::App& app) {
     }
     Provenance run = make_provenance(season);
     run.as_of = as_of;
-    set_model(run, season.model, report.ratings.shape);
+    set_model(run, season, report.ratings.shape);
     std::string text;
     switch (format) {
       case Format::kTable:

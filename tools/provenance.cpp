@@ -3,6 +3,7 @@
 #include <fmt/core.h>
 #include <openssl/evp.h>
 
+#include <algorithm>
 #include <array>
 #include <fstream>
 #include <memory>
@@ -90,12 +91,15 @@ Provenance make_provenance(const config::Season& season) {
   return p;
 }
 
-void set_model(Provenance& p, const config::ModelSpec& model, double shape_used) {
+void set_model(Provenance& p, const config::Season& season, double shape_used) {
+  const config::ModelSpec& model = season.model;
   p.family = model.family;
   const bool has_shape = model.family == config::ScoreFamily::kWeibull ||
                          model.family == config::ScoreFamily::kNegativeBinomial;
   p.shape = has_shape ? std::optional<double>(shape_used) : std::nullopt;
-  p.shape_fitted = has_shape && !model.shape.has_value();
+  const bool played = std::any_of(season.games.begin(), season.games.end(),
+                                  [](const config::Game& g) { return g.played; });
+  p.shape_source = !has_shape ? "" : model.shape ? "fixed" : played ? "fitted" : "default";
 }
 
 std::string provenance_line(const Provenance& p) {
@@ -112,7 +116,7 @@ std::string provenance_line(const Provenance& p) {
   if (p.family) {
     out += fmt::format("; model {}", models::family_name(*p.family));
     if (p.shape) {
-      out += fmt::format(", shape {:.3f} ({})", *p.shape, p.shape_fitted ? "fitted" : "fixed");
+      out += fmt::format(", shape {:.3f} ({})", *p.shape, p.shape_source);
     }
   }
   if (p.seed) out += fmt::format("; seed {}", *p.seed);
@@ -122,7 +126,7 @@ std::string provenance_line(const Provenance& p) {
 
 std::string provenance_csv_header() {
   return ",run_version,run_season_file,run_season_sha256,run_games_file,run_games_sha256,"
-         "run_as_of,run_family,run_shape,run_shape_fitted,run_seed,run_seasons";
+         "run_as_of,run_family,run_shape,run_shape_source,run_seed,run_seasons";
 }
 
 std::string provenance_csv_cells(const Provenance& p) {
@@ -130,9 +134,8 @@ std::string provenance_csv_cells(const Provenance& p) {
                      csv_field(p.season_file), p.season_sha256, csv_field(p.games_file),
                      p.games_sha256, p.as_of ? config::format_date(*p.as_of) : std::string(),
                      p.family ? models::family_name(*p.family) : "",
-                     p.shape ? fmt::format("{:.6g}", *p.shape) : std::string(),
-                     p.shape ? (p.shape_fitted ? "yes" : "no") : "", optional_number(p.seed),
-                     optional_number(p.seasons));
+                     p.shape ? fmt::format("{:.6g}", *p.shape) : std::string(), p.shape_source,
+                     optional_number(p.seed), optional_number(p.seasons));
 }
 
 nlohmann::ordered_json provenance_json(const Provenance& p) {
@@ -149,7 +152,7 @@ nlohmann::ordered_json provenance_json(const Provenance& p) {
   run["as_of"] = p.as_of ? ordered_json(config::format_date(*p.as_of)) : ordered_json(nullptr);
   run["family"] = p.family ? ordered_json(models::family_name(*p.family)) : ordered_json(nullptr);
   run["shape"] = p.shape ? ordered_json(*p.shape) : ordered_json(nullptr);
-  run["shape_fitted"] = p.shape ? ordered_json(p.shape_fitted) : ordered_json(nullptr);
+  run["shape_source"] = text_or_null(p.shape_source);
   run["seed"] = p.seed ? ordered_json(*p.seed) : ordered_json(nullptr);
   run["seasons"] = p.seasons ? ordered_json(*p.seasons) : ordered_json(nullptr);
   return run;

@@ -26,9 +26,9 @@ struct Provenance {
   std::optional<config::DayNumber> as_of;
   std::optional<config::ScoreFamily> family;  // when a model was used
   std::optional<double> shape;                // Weibull gamma or negative-binomial size used
-  bool shape_fitted = false;                  // fitted from the games (else fixed in the file)
-  std::optional<std::uint64_t> seed;          // for simulations
-  std::optional<std::uint64_t> seasons;       // simulated seasons
+  std::string shape_source;  // "fitted" (from the games), "fixed" (in the file) or "default"
+  std::optional<std::uint64_t> seed;     // for simulations
+  std::optional<std::uint64_t> seasons;  // simulated seasons
 };
 
 // The provenance of a report on `season`: version, files and hashes, default as-of date.
@@ -44,8 +44,9 @@ std::string sha256_file(const std::filesystem::path& file);
 std::string sha256_hex(std::string_view bytes);
 
 // Records the model a command ran with: the season's family and, for the families with a shape
-// (Weibull gamma, negative-binomial size), the shape used and whether it was fitted.
-void set_model(Provenance& p, const config::ModelSpec& model, double shape_used);
+// (Weibull gamma, negative-binomial size), the shape used and where it came from: fixed in the
+// file, fitted from the played games, or the documented default when no game is played.
+void set_model(Provenance& p, const config::Season& season, double shape_used);
 
 // One line for the head of a table, e.g.
 // "Run: standfast 0.1.0; season.yaml sha256 3f2a9c01d4e5, games.csv sha256 ...; as of
