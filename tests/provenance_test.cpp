@@ -62,7 +62,7 @@ TEST_CASE("provenance of a season: files, hashes and the default as-of date") {
   CHECK_FALSE(p.seed.has_value());
 }
 
-TEST_CASE("no played game: no as-of date; the CSV cells match the header") {
+TEST_CASE("no played game: the as-of date is the first game's; the CSV cells match the header") {
   const config::Season season = config::load_season_text(
       "standfast: 1\n"
       "league: {name: L, season: S}\n"
@@ -71,7 +71,8 @@ TEST_CASE("no played game: no as-of date; the CSV cells match the header") {
       "games: [{date: 2040-05-01, home: A, away: B}]\n",
       "inline.yaml");
   tools::Provenance p = tools::make_provenance(season);
-  CHECK_FALSE(p.as_of.has_value());
+  REQUIRE(p.as_of.has_value());  // config::default_as_of: the earliest dated game
+  CHECK(config::format_date(*p.as_of) == "2040-05-01");
   CHECK(p.season_sha256.empty());  // the file does not exist on disk
   tools::set_model(p, season, 1.8);
   p.seed = 7;
@@ -79,7 +80,7 @@ TEST_CASE("no played game: no as-of date; the CSV cells match the header") {
   CHECK(count_commas(tools::provenance_csv_header()) ==
         count_commas(tools::provenance_csv_cells(p)));
   const auto j = tools::provenance_json(p);
-  CHECK(j["as_of"].is_null());
+  CHECK(j["as_of"] == "2040-05-01");
   CHECK(j["family"] == "weibull");
   CHECK(j["shape_source"] == "default");  // no game played
   CHECK(j["seed"] == 7);
@@ -87,7 +88,7 @@ TEST_CASE("no played game: no as-of date; the CSV cells match the header") {
   const std::string line = tools::provenance_line(p);
   CHECK(line.find("model weibull, shape 1.800 (default)") != std::string::npos);
   CHECK(line.find("seed 7; 1,000 seasons") != std::string::npos);
-  CHECK(line.find("as of (no games played)") != std::string::npos);
+  CHECK(line.find("as of 2040-05-01") != std::string::npos);
 
   // A shape fixed in the file is "fixed"; Poisson and log5 have no shape.
   config::Season fixed = season;

@@ -8,6 +8,7 @@
 #include <fstream>
 #include <memory>
 
+#include "config/as_of.h"
 #include "models/score_dist.h"
 #include "tools/cli.h"
 #include "tools/output.h"
@@ -71,15 +72,6 @@ std::string sha256_file(const std::filesystem::path& file) {
   return hex(md.data(), n);
 }
 
-std::optional<config::DayNumber> default_as_of(const config::Season& season) {
-  std::optional<config::DayNumber> last;
-  for (const config::Game& g : season.games) {
-    if (g.played && g.date && (!last || *g.date > *last)) last = g.date;
-  }
-  if (!last) return std::nullopt;
-  return *last + 1;
-}
-
 Provenance make_provenance(const config::Season& season) {
   Provenance p;
   p.program_version = std::string(program_version());
@@ -87,7 +79,7 @@ Provenance make_provenance(const config::Season& season) {
   p.season_sha256 = sha256_file(season.file);
   p.games_file = season.games_file;
   if (!season.games_file.empty()) p.games_sha256 = sha256_file(season.games_file);
-  p.as_of = default_as_of(season);
+  p.as_of = config::default_as_of(season);
   return p;
 }
 
@@ -112,7 +104,7 @@ std::string provenance_line(const Provenance& p) {
       fmt::format("Run: standfast {}; {}", p.program_version, file(p.season_file, p.season_sha256));
   if (!p.games_file.empty()) out += ", " + file(p.games_file, p.games_sha256);
   out += fmt::format("; as of {}",
-                     p.as_of ? config::format_date(*p.as_of) : std::string("(no games played)"));
+                     p.as_of ? config::format_date(*p.as_of) : std::string("(no dated game)"));
   if (p.family) {
     out += fmt::format("; model {}", models::family_name(*p.family));
     if (p.shape) {

@@ -21,8 +21,8 @@ struct Provenance {
   std::string season_sha256;  // 64 lower-case hex digits; empty when the file cannot be read
   std::string games_file;     // the season's games CSV, or empty when the games are inline
   std::string games_sha256;
-  // Games after this date count as not played. Default: the day after the last played game
-  // (empty when no game has been played). A command with an --as-of option sets it.
+  // Games on or after this date count as not played (config/as_of.h). Default:
+  // config::default_as_of, the day after the last played game. An --as-of option sets it.
   std::optional<config::DayNumber> as_of;
   std::optional<config::ScoreFamily> family;  // when a model was used
   std::optional<double> shape;                // Weibull gamma or negative-binomial size used
@@ -34,9 +34,6 @@ struct Provenance {
 // The provenance of a report on `season`: version, files and hashes, default as-of date.
 // The model, seed and seasons are left for the command to fill in.
 Provenance make_provenance(const config::Season& season);
-
-// The day after the last played game with a known date, or empty.
-std::optional<config::DayNumber> default_as_of(const config::Season& season);
 
 // SHA-256 of a file's bytes as 64 lower-case hex digits; empty when it cannot be read.
 std::string sha256_file(const std::filesystem::path& file);
