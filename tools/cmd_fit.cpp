@@ -314,9 +314,9 @@ void add_fit_command(CLI::App& app) {
          "--alpha", opt->alpha,
          help_text("Family-wise level of the goodness-of-fit tests, between 0 and 1", "0.05"))
       ->check(real_number({0.0, 1.0, true, true}));
-  cmd->add_option("--as-of", opt->as_of,
-                  help_text("Fit only the games played before this date (YYYY-MM-DD)",
-                            "every played game"));
+  cmd->add_option(
+      "--as-of", opt->as_of,
+      help_text("Fit only the games played before this date (YYYY-MM-DD)", "every played game"));
   cmd->callback([opt] {
     const Format format = check_report_options(opt->report);
     const config::Season full = load_season_file(opt->file);
