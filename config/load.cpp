@@ -120,6 +120,7 @@ Season load_season_text(const std::string& yaml_text, const std::filesystem::pat
       report.error(yaml.games_file_pos, "games_file: cannot read " +
                                             detail::quoted(csv_path.string(), 4096) + ": " + why);
     } else {
+      season.games_file = csv_path.string();
       detail::read_games_csv(*csv, csv_path.string(), yaml.teams, season, report);
     }
   }

@@ -13,6 +13,9 @@
 
 namespace standfast::config {
 
+// The version of the season-file format this program reads (the file's `standfast:` key).
+inline constexpr int SEASON_FORMAT_VERSION = 1;
+
 // Where a value came from: a file, a 1-based line and a 1-based column (0 when unknown).
 struct SourcePos {
   std::string file;
@@ -162,7 +165,8 @@ struct Diagnostic {
 };
 
 struct Season {
-  std::string file;  // the season file as given
+  std::string file;        // the season file as given
+  std::string games_file;  // the games CSV named by `games_file` (its path as read), or empty
   League league;
   std::vector<Team> teams;
   std::vector<Group> groups;

@@ -478,8 +478,9 @@ void read_all(YamlContext& ctx, const YAML::Node& root, Season& season, YamlResu
   if (!top.ok()) return;
   if (auto n = top.require("standfast")) {
     const auto v = n->IsScalar() ? parse_integer(n->Scalar()) : std::nullopt;
-    if (!v || *v != 1) {
-      ctx.error(*n, "standfast: the format version must be 1, got " + describe(*n));
+    if (!v || *v != SEASON_FORMAT_VERSION) {
+      ctx.error(*n, "standfast: the format version must be " +
+                        std::to_string(SEASON_FORMAT_VERSION) + ", got " + describe(*n));
     }
   }
   if (auto n = top.require("league")) read_league(ctx, *n, season.league, out);

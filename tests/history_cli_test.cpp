@@ -139,7 +139,14 @@ TEST_CASE("odds as of a date equal odds on the file with the later games left un
   const Run b = run("odds " + copy.string() + " --seasons 3000 --format json");
   REQUIRE(a.status == 0);
   REQUIRE(b.status == 0);
-  CHECK(a.out == b.out);
+  // The same numbers; only the provenance names a different file with a different hash.
+  auto ja = nlohmann::json::parse(a.out);
+  auto jb = nlohmann::json::parse(b.out);
+  for (auto* doc : {&ja, &jb}) {
+    (*doc)["run"].erase("season_file");
+    (*doc)["run"].erase("season_sha256");
+  }
+  CHECK(ja == jb);
 }
 
 TEST_CASE("history commands refuse bad input with exit status 2") {

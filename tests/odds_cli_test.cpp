@@ -49,7 +49,7 @@ TEST_CASE("odds on the small league prints the table with the caution") {
   REQUIRE(r.status == 0);
   CHECK(r.out.find("not advice for wagering") != std::string::npos);
   CHECK(r.out.find("model estimates") != std::string::npos);
-  CHECK(r.out.find("Seed 20260101") != std::string::npos);
+  CHECK(r.out.find("seed 20260101") != std::string::npos);
   CHECK(r.out.find("2,000 simulated seasons") != std::string::npos);
 }
 

@@ -149,9 +149,10 @@ TEST_CASE("the table states the caution, the run and the marks") {
   CHECK(lines[1] == std::string(tools::ODDS_CAUTION));
   CHECK(lines[1].find("not advice for wagering") != std::string::npos);
   CHECK(lines[1].find("model estimates") != std::string::npos);
-  CHECK(lines[2].find("Seed 777") != std::string::npos);
-  CHECK(lines[2].find("largest standard error 0.50 percentage points") != std::string::npos);
-  CHECK(lines[2].find("extra innings in 8.7%") != std::string::npos);
+  CHECK(lines[2].rfind("Run: standfast ", 0) == 0);
+  CHECK(lines[2].find("seed 777; 10,000 seasons") != std::string::npos);
+  CHECK(lines[3].find("Largest standard error 0.50 percentage points") != std::string::npos);
+  CHECK(lines[3].find("extra innings in 8.7%") != std::string::npos);
   CHECK(table.find("Northern Loop - Upper Division") != std::string::npos);
   CHECK(table.find("Northern Loop - Lower Division") != std::string::npos);
   CHECK(table.find("clinched") != std::string::npos);
@@ -203,7 +204,8 @@ TEST_CASE("CSV has one documented row per team, quoted where needed") {
         "wins_p10,wins_p50,wins_p90,division_p,division_se,division_status,division_magic,"
         "division_elimination,postseason_p,postseason_se,postseason_status,postseason_magic,"
         "postseason_elimination,bye_p,bye_se,bye_status,title_p,title_se,title_status,round1_p,"
-        "round1_se,round2_p,round2_se");
+        "round1_se,round2_p,round2_se" +
+            tools::provenance_csv_header());
   // Table order: upper division (QLK 20-5, SOW 8-17), lower (FHE 14-11, RTC 12-13).
   CHECK(lines[1].rfind("QLK,Quarry Larks,north,north-a,20,5,5,11.500,18.500,10,11,12,", 0) == 0);
   CHECK(lines[3].rfind("FHE,", 0) == 0);

@@ -1,19 +1,26 @@
-// `standfast check FILE`: reads and validates a season file and prints a short summary of it.
-// Problems end the program through ConfigError (exit status 2, printed by main); warnings go to
-// stderr as FILE:LINE:COLUMN: warning: ...  Nothing is written to any file.
+// `standfast check SEASON_FILE`: reads and validates a season file and writes a short summary of
+// it (table, CSV of the teams, or JSON). Problems end the program through ConfigError (exit
+// status 2, printed by main); warnings go to stderr as FILE:LINE:COLUMN: warning: message.
 #include <fmt/core.h>
 
 #include <memory>
+#include <nlohmann/json.hpp>
 #include <string>
+#include <vector>
 
 #include "config/load.h"
+#include "tools/cli.h"
 #include "tools/commands.h"
+#include "tools/output.h"
+#include "tools/provenance.h"
 
 namespace standfast::tools {
 
 namespace {
 
 using config::Season;
+
+constexpr int SCHEMA_VERSION = 1;
 
 std::string plural(std::size_t n, const char* one, const char* many) {
   return fmt::format("{} {}", n, n == 1 ? one : many);
@@ -63,9 +70,9 @@ const char* family_name(config::ScoreFamily f) {
   return "?";
 }
 
-void print_groups(const Season& s, int g, int depth) {
-  const config::Group& group = s.groups[static_cast<std::size_t>(g)];
-  std::size_t teams = 0;  // teams of every division at or below this group
+// Teams of every division at or below group `g`.
+std::size_t teams_below(const Season& s, int g) {
+  std::size_t teams = 0;
   for (const config::Team& t : s.teams) {
     for (int up = t.division; up >= 0; up = s.groups[static_cast<std::size_t>(up)].parent) {
       if (up == g) {
@@ -74,22 +81,30 @@ void print_groups(const Season& s, int g, int depth) {
       }
     }
   }
-  fmt::print("  {:{}}{} ({}): {}\n", "", depth * 2, group.name, group.id,
-             plural(teams, "team", "teams"));
-  for (const int c : group.children) print_groups(s, c, depth + 1);
+  return teams;
 }
 
-void print_summary(const Season& s) {
-  fmt::print("{}: {}, {}\n", s.file, s.league.name, s.league.season_label);
+void print_groups(std::string& out, const Season& s, int g, int depth) {
+  const config::Group& group = s.groups[static_cast<std::size_t>(g)];
+  const std::size_t teams = teams_below(s, g);
+  fmt::format_to(std::back_inserter(out), "  {:{}}{} ({}): {}\n", "", depth * 2, group.name,
+                 group.id, plural(teams, "team", "teams"));
+  for (const int c : group.children) print_groups(out, s, c, depth + 1);
+}
+
+std::string summary_table(const Season& s, const Provenance& run) {
+  std::string out;
+  out += fmt::format("{}: {}, {}\n", s.file, s.league.name, s.league.season_label);
+  out += provenance_line(run) + "\n";
   std::string extra = s.league.extra_innings.runner_on_second ? ", runner on second in extras" : "";
   if (s.league.extra_innings.max_innings > 0) {
     extra += fmt::format(", draw after {} innings", s.league.extra_innings.max_innings);
   }
-  fmt::print("Rules: {} innings{}\n", s.league.regulation_innings, extra);
-  fmt::print("Teams: {} in {} and {}\n", s.teams.size(),
-             plural(s.conferences.size(), "conference", "conferences"),
-             plural(s.divisions.size(), "division", "divisions"));
-  for (const int c : s.conferences) print_groups(s, c, 0);
+  out += fmt::format("Rules: {} innings{}\n", s.league.regulation_innings, extra);
+  out += fmt::format("Teams: {} in {} and {}\n", s.teams.size(),
+                     plural(s.conferences.size(), "conference", "conferences"),
+                     plural(s.divisions.size(), "division", "divisions"));
+  for (const int c : s.conferences) print_groups(out, s, c, 0);
 
   std::size_t played = 0;
   std::size_t postponed = 0;
@@ -97,34 +112,34 @@ void print_summary(const Season& s) {
     played += g.played ? 1 : 0;
     postponed += (!g.played && g.postponed) ? 1 : 0;
   }
-  fmt::print("Games: {} ({} played, {} remaining, of which {} postponed)\n", s.games.size(), played,
-             s.games.size() - played, postponed);
+  out += fmt::format("Games: {} ({} played, {} remaining, of which {} postponed)\n", s.games.size(),
+                     played, s.games.size() - played, postponed);
   if (s.league.games_per_team > 0) {
-    fmt::print("Games per team: {} stated\n", s.league.games_per_team);
+    out += fmt::format("Games per team: {} stated\n", s.league.games_per_team);
   }
 
   const config::Postseason& p = s.postseason;
   if (!p.enabled) {
-    fmt::print("Postseason: none (regular-season odds only)\n");
+    out += fmt::format("Postseason: none (regular-season odds only)\n");
   } else {
     int field = 0;
     for (const config::Qualifying& q : p.qualifying) field += q.division_winners + q.at_large;
-    fmt::print(
+    out += fmt::format(
         "Postseason: {} teams, {}{}\n", field,
         p.format == config::BracketFormat::kSingleBracket ? "one bracket" : "conference brackets",
         p.reseed ? ", reseeded after each round" : "");
     for (const config::Qualifying& q : p.qualifying) {
-      fmt::print("  {}: {} division winners + {} at-large, {}{}\n",
-                 s.groups[static_cast<std::size_t>(q.conference)].id, q.division_winners,
-                 q.at_large, plural(static_cast<std::size_t>(q.byes), "bye", "byes"),
-                 q.winners_first ? ", winners seeded first" : "");
+      out += fmt::format("  {}: {} division winners + {} at-large, {}{}\n",
+                         s.groups[static_cast<std::size_t>(q.conference)].id, q.division_winners,
+                         q.at_large, plural(static_cast<std::size_t>(q.byes), "bye", "byes"),
+                         q.winners_first ? ", winners seeded first" : "");
     }
     std::string rounds;
     for (const config::Round& r : p.rounds) {
       if (!rounds.empty()) rounds += ", ";
       rounds += fmt::format("{} (best of {})", r.name, r.best_of);
     }
-    fmt::print("Rounds: {}\n", rounds);
+    out += fmt::format("Rounds: {}\n", rounds);
   }
 
   std::string order;
@@ -135,37 +150,139 @@ void print_summary(const Season& s) {
       order += fmt::format(" ({} within {})", r.games, scope_name(r.scope));
     }
   }
-  fmt::print("Tiebreakers: {}{}\n",
-             s.tiebreakers.extra_game ? "extra game for two-team ties, else " : "", order);
+  out += fmt::format("Tiebreakers: {}{}\n",
+                     s.tiebreakers.extra_game ? "extra game for two-team ties, else " : "", order);
 
   const config::ModelSpec& m = s.model;
-  fmt::print("Model: {}; shape {}; home edge {}; shrink {} games{}{}\n", family_name(m.family),
-             m.shape ? fmt::format("{}", *m.shape) : "fitted",
-             m.home_edge ? fmt::format("{}", *m.home_edge) : "fitted", m.shrink_games,
-             m.lopsided ? fmt::format("; lopsided runs beyond {} weighted {}", m.lopsided->margin,
-                                      m.lopsided->weight)
-                        : "",
-             m.strength_uncertainty ? "" : "; strengths fixed");
-  if (!s.overrides.empty()) fmt::print("Overrides: {}\n", s.overrides.size());
-  fmt::print("OK{}\n", s.warnings.empty() ? ""
-                                          : fmt::format(" with {}", plural(s.warnings.size(),
-                                                                           "warning", "warnings")));
+  out += fmt::format("Model: {}; shape {}; home edge {}; shrink {} games{}{}\n",
+                     family_name(m.family), m.shape ? fmt::format("{}", *m.shape) : "fitted",
+                     m.home_edge ? fmt::format("{}", *m.home_edge) : "fitted", m.shrink_games,
+                     m.lopsided ? fmt::format("; lopsided runs beyond {} weighted {}",
+                                              m.lopsided->margin, m.lopsided->weight)
+                                : "",
+                     m.strength_uncertainty ? "" : "; strengths fixed");
+  if (!s.overrides.empty()) out += fmt::format("Overrides: {}\n", s.overrides.size());
+  out += fmt::format(
+      "OK{}\n", s.warnings.empty()
+                    ? ""
+                    : fmt::format(" with {}", plural(s.warnings.size(), "warning", "warnings")));
+  return out;
+}
+
+// Games scheduled, played and left for every team.
+struct TeamGames {
+  int scheduled = 0, played = 0;
+};
+std::vector<TeamGames> team_games(const Season& s) {
+  std::vector<TeamGames> out(s.teams.size());
+  for (const config::Game& g : s.games) {
+    for (const int t : {g.home, g.away}) {
+      ++out[static_cast<std::size_t>(t)].scheduled;
+      if (g.played) ++out[static_cast<std::size_t>(t)].played;
+    }
+  }
+  return out;
+}
+
+// CSV: one row per team, in file order.
+std::string summary_csv(const Season& s, const Provenance& run) {
+  std::string out =
+      "team_id,team_name,conference,division,venue,run_factor,games,games_played,games_left" +
+      provenance_csv_header() + "\n";
+  const std::string run_cells = provenance_csv_cells(run);
+  const auto games = team_games(s);
+  for (std::size_t i = 0; i < s.teams.size(); ++i) {
+    const config::Team& t = s.teams[i];
+    out += fmt::format("{},{},{},{},{},{:g},{},{},{}{}\n", csv_field(t.id), csv_field(t.name),
+                       csv_field(s.groups[static_cast<std::size_t>(t.conference)].id),
+                       csv_field(s.groups[static_cast<std::size_t>(t.division)].id),
+                       csv_field(t.venue), t.run_factor, games[i].scheduled, games[i].played,
+                       games[i].scheduled - games[i].played, run_cells);
+  }
+  return out;
+}
+
+std::string summary_json(const Season& s, const Provenance& run) {
+  using json = nlohmann::ordered_json;
+  json doc;
+  doc["schema_version"] = SCHEMA_VERSION;
+  doc["run"] = provenance_json(run);
+  doc["league"] = {{"name", s.league.name},
+                   {"season", s.league.season_label},
+                   {"innings", s.league.regulation_innings},
+                   {"runner_on_second", s.league.extra_innings.runner_on_second},
+                   {"max_innings", s.league.extra_innings.max_innings},
+                   {"games_per_team",
+                    s.league.games_per_team > 0 ? json(s.league.games_per_team) : json(nullptr)}};
+  json groups = json::array();
+  for (const config::Group& g : s.groups) {
+    groups.push_back(
+        {{"id", g.id},
+         {"name", g.name},
+         {"parent",
+          g.parent >= 0 ? json(s.groups[static_cast<std::size_t>(g.parent)].id) : json(nullptr)},
+         {"teams", teams_below(s, static_cast<int>(&g - s.groups.data()))}});
+  }
+  doc["groups"] = groups;
+  json teams = json::array();
+  const auto games = team_games(s);
+  for (std::size_t i = 0; i < s.teams.size(); ++i) {
+    const config::Team& t = s.teams[i];
+    teams.push_back({{"id", t.id},
+                     {"name", t.name},
+                     {"conference", s.groups[static_cast<std::size_t>(t.conference)].id},
+                     {"division", s.groups[static_cast<std::size_t>(t.division)].id},
+                     {"venue", t.venue},
+                     {"run_factor", t.run_factor},
+                     {"games", games[i].scheduled},
+                     {"games_played", games[i].played},
+                     {"games_left", games[i].scheduled - games[i].played}});
+  }
+  doc["teams"] = teams;
+  std::size_t played = 0;
+  for (const config::Game& g : s.games) played += g.played ? 1 : 0;
+  doc["games"] = {
+      {"total", s.games.size()}, {"played", played}, {"remaining", s.games.size() - played}};
+  doc["postseason"] = s.postseason.enabled;
+  json warnings = json::array();
+  for (const config::Diagnostic& w : s.warnings) {
+    warnings.push_back({{"file", w.pos.file},
+                        {"line", w.pos.line > 0 ? json(w.pos.line) : json(nullptr)},
+                        {"column", w.pos.column > 0 ? json(w.pos.column) : json(nullptr)},
+                        {"message", w.message}});
+  }
+  doc["warnings"] = warnings;
+  return doc.dump(2) + "\n";
 }
 
 }  // namespace
 
 void add_check_command(CLI::App& app) {
   auto* cmd = app.add_subcommand("check", "Validate a season file and print a short summary");
-  auto file = std::make_shared<std::string>();
-  cmd->add_option("FILE", *file, "The season file (YAML)")->required();
-  cmd->callback([file] {
-    const Season season = config::load_season(*file);
-    for (const config::Diagnostic& w : season.warnings) {
-      config::Diagnostic d = w;
-      d.message = "warning: " + d.message;
-      fmt::print(stderr, "{}\n", config::format_diagnostic(d));
+  struct Options {
+    std::string file;
+    ReportOptions report;
+  };
+  auto opt = std::make_shared<Options>();
+  add_season_file(*cmd, opt->file);
+  add_report_options(*cmd, opt->report);
+  cmd->callback([opt] {
+    const Format format = check_report_options(opt->report);
+    const Season season = load_season_file(opt->file);
+    const Provenance run = make_provenance(season);
+    std::string text;
+    switch (format) {
+      case Format::kTable:
+        text = summary_table(season, run);
+        break;
+      case Format::kCsv:
+        text = summary_csv(season, run);
+        break;
+      case Format::kJson:
+        text = summary_json(season, run);
+        break;
     }
-    print_summary(season);
+    write_output(opt->report.output, text);
   });
 }
 

@@ -14,9 +14,11 @@
 #include "config/load.h"
 #include "models/fit_report.h"
 #include "models/score_dist.h"
+#include "tools/cli.h"
 #include "tools/commands.h"
 #include "tools/odds_run.h"
 #include "tools/output.h"
+#include "tools/provenance.h"
 
 namespace standfast::tools {
 namespace {
@@ -33,11 +35,12 @@ std::string with_se(double value, double se, int digits) {
   return fmt::format("{:.{}f} ± {:.{}f}", value, digits, se, digits);
 }
 
-std::string render_table(const config::Season& s, const FitReport& r) {
+std::string render_table(const config::Season& s, const FitReport& r, const Provenance& run) {
   std::string out;
   const auto& lr = r.ratings;
   out += fmt::format("Scoring model of {} ({}), from {}\n", s.league.name, s.league.season_label,
                      s.file);
+  out += provenance_line(run) + "\n";
   out +=
       fmt::format("Family: {}   games fitted: {}\n", models::family_name(r.family), r.games_fitted);
   if (r.family == config::ScoreFamily::kLog5) {
@@ -130,56 +133,89 @@ std::string render_table(const config::Season& s, const FitReport& r) {
   return out;
 }
 
-// CSV: blocks separated by a blank line, each with its own header row; the first column names
-// the block (league, team, family) so rows can be filtered.
-std::string render_csv(const config::Season& s, const FitReport& r) {
+// CSV: one long table, one value per row: `table` (league, team or family), `id` (empty for the
+// league, the team id, the family name), `field`, `value`, then the run columns of every report.
+std::string render_csv(const config::Season& s, const FitReport& r, const Provenance& run) {
   const auto& lr = r.ratings;
-  std::string out =
-      "block,family,games_fitted,league_mean,league_mean_se,shape,shape_se,home_edge,home_edge_se,"
-      "plain_shape,plain_shape_se,shrink_games,suggested_shrink_games,family_alpha,tests,"
-      "per_test_alpha,rejected\n";
-  out += fmt::format(
-      "league,{},{},{:.6g},{:.6g},{:.6g},{:.6g},{:.6g},{:.6g},{:.6g},{:.6g},{:g},{},{:g},{},{:.6g},"
-      "{}\n",
-      models::family_name(r.family), r.games_fitted, lr.league_mean, lr.league_mean_se, lr.shape,
-      lr.shape_se, lr.home_edge, lr.home_edge_se, r.plain_shape, r.plain_shape_se, r.shrink_games,
-      r.suggested_shrink_games ? fmt::format("{:.1f}", *r.suggested_shrink_games) : "",
-      r.family_alpha, r.tests, r.per_test_alpha, r.rejected);
-  out +=
-      "\nblock,team,games,wins,losses,runs_scored_per_game,runs_allowed_per_game,"
-      "plain_offence,plain_offence_log_se,plain_defence,plain_defence_log_se,free_shape,free_shape_"
-      "se,"
-      "mle_offence,mle_offence_log_se,mle_defence,mle_defence_log_se,"
-      "offence,offence_log_se,defence,defence_log_se,chi_square,df,p_value,critical,poor_fit,"
-      "expected_pct,expected_wins,wins_minus_expected\n";
+  const std::string run_cells = provenance_csv_cells(run);
+  std::string out = "table,id,field,value" + provenance_csv_header() + "\n";
+  const auto row = [&](std::string_view table, std::string_view id, std::string_view field,
+                       const std::string& value) {
+    out += fmt::format("{},{},{},{}{}\n", table, csv_field(id), field, csv_field(value), run_cells);
+  };
+  const auto num = [](double v, int significant = 6) {
+    return std::isfinite(v) ? fmt::format("{:.{}g}", v, significant) : std::string();
+  };
+  row("league", "", "family", models::family_name(r.family));
+  row("league", "", "games_fitted", fmt::format("{}", r.games_fitted));
+  row("league", "", "league_mean", num(lr.league_mean));
+  row("league", "", "league_mean_se", num(lr.league_mean_se));
+  row("league", "", "shape", num(lr.shape));
+  row("league", "", "shape_se", num(lr.shape_se));
+  row("league", "", "home_edge", num(lr.home_edge));
+  row("league", "", "home_edge_se", num(lr.home_edge_se));
+  row("league", "", "plain_shape", num(r.plain_shape));
+  row("league", "", "plain_shape_se", num(r.plain_shape_se));
+  row("league", "", "shrink_games", num(r.shrink_games));
+  row("league", "", "suggested_shrink_games",
+      r.suggested_shrink_games ? fmt::format("{:.1f}", *r.suggested_shrink_games) : "");
+  row("league", "", "family_alpha", num(r.family_alpha));
+  row("league", "", "tests", fmt::format("{}", r.tests));
+  row("league", "", "per_test_alpha", num(r.per_test_alpha));
+  row("league", "", "rejected", fmt::format("{}", r.rejected));
   for (size_t i = 0; i < r.teams.size(); ++i) {
     const auto& t = r.teams[i];
-    out += fmt::format(
-        "team,{},{},{},{},{:.4f},{:.4f},{:.5f},{:.5f},{:.5f},{:.5f},{:.4f},{:.4f},{:.5f},{:.5f},{:."
-        "5f},{:.5f},"
-        "{:.5f},{:.5f},{:.5f},{:.5f},{:.4f},{},{:.6g},{:.4f},{},{:.5f},{:.3f},{:.3f}\n",
-        csv_field(s.teams[i].id), t.games, t.wins, t.losses, t.runs_scored, t.runs_allowed,
-        t.plain_offence, t.plain_scored_se, t.plain_defence, t.plain_allowed_se, t.free_shape,
-        t.free_shape_se, t.mle_offence, t.mle_log_offence_se, t.mle_defence, t.mle_log_defence_se,
-        t.offence, t.log_offence_se, t.defence, t.log_defence_se, t.chi_square, t.df, t.p_value,
-        t.critical, t.rejected ? "yes" : "no", t.expected_pct, t.expected_wins,
-        t.wins_minus_expected);
+    const std::string& id = s.teams[i].id;
+    const auto team = [&](std::string_view field, const std::string& value) {
+      row("team", id, field, value);
+    };
+    team("games", fmt::format("{}", t.games));
+    team("wins", fmt::format("{}", t.wins));
+    team("losses", fmt::format("{}", t.losses));
+    team("runs_scored_per_game", num(t.runs_scored));
+    team("runs_allowed_per_game", num(t.runs_allowed));
+    team("plain_offence", num(t.plain_offence));
+    team("plain_offence_log_se", num(t.plain_scored_se));
+    team("plain_defence", num(t.plain_defence));
+    team("plain_defence_log_se", num(t.plain_allowed_se));
+    team("free_shape", t.free_shape > 0 ? num(t.free_shape) : "");
+    team("free_shape_se", t.free_shape > 0 ? num(t.free_shape_se) : "");
+    team("mle_offence", num(t.mle_offence));
+    team("mle_offence_log_se", num(t.mle_log_offence_se));
+    team("mle_defence", num(t.mle_defence));
+    team("mle_defence_log_se", num(t.mle_log_defence_se));
+    team("offence", num(t.offence));
+    team("offence_log_se", num(t.log_offence_se));
+    team("defence", num(t.defence));
+    team("defence_log_se", num(t.log_defence_se));
+    team("chi_square", t.df > 0 ? num(t.chi_square) : "");
+    team("df", fmt::format("{}", t.df));
+    team("p_value", t.df > 0 ? num(t.p_value) : "");
+    team("critical", t.df > 0 ? num(t.critical) : "");
+    team("poor_fit", t.rejected ? "yes" : "no");
+    team("expected_pct", num(t.expected_pct));
+    team("expected_wins", num(t.expected_wins));
+    team("wins_minus_expected", num(t.wins_minus_expected));
   }
-  out += "\nblock,family,shape,parameters,log_lik,aic,delta_aic,converged\n";
   for (const auto& f : r.families) {
-    out += fmt::format("family,{},{:.6g},{},{:.4f},{:.4f},{:.4f},{}\n",
-                       models::family_name(f.family), f.shape, f.parameters, f.log_lik, f.aic,
-                       f.delta_aic, f.converged ? "yes" : "no");
+    const char* name = models::family_name(f.family);
+    row("family", name, "shape", f.family == config::ScoreFamily::kPoisson ? "" : num(f.shape));
+    row("family", name, "parameters", fmt::format("{}", f.parameters));
+    row("family", name, "log_lik", num(f.log_lik, 10));
+    row("family", name, "aic", num(f.aic, 10));
+    row("family", name, "delta_aic", num(f.delta_aic));
+    row("family", name, "converged", f.converged ? "yes" : "no");
   }
   return out;
 }
 
-std::string render_json(const config::Season& s, const FitReport& r) {
+std::string render_json(const config::Season& s, const FitReport& r, const Provenance& run) {
   using nlohmann::json;
   const auto& lr = r.ratings;
   json j;
   j["schema_version"] = 1;
   j["kind"] = "fit";
+  j["run"] = json::parse(provenance_json(run).dump());
   j["file"] = s.file;
   j["league"] = {{"name", s.league.name},
                  {"season", s.league.season_label},
@@ -267,44 +303,47 @@ void add_fit_command(CLI::App& app) {
   auto* cmd =
       app.add_subcommand("fit", "Fit the scoring model to the played games and show diagnostics");
   struct Options {
-    std::string file, format = "table", output, as_of;
+    std::string file, as_of;
+    ReportOptions report;
     double alpha = 0.05;
   };
   auto opt = std::make_shared<Options>();
-  cmd->add_option("FILE", opt->file, "season file (YAML)")->required();
-  cmd->add_option("--format", opt->format, "table, csv or json")->capture_default_str();
-  cmd->add_option("--output", opt->output, "write to this file instead of standard output");
-  cmd->add_option("--alpha", opt->alpha, "family-wise level of the goodness-of-fit tests")
-      ->capture_default_str();
-  cmd->add_option("--as-of", opt->as_of,
-                  "fit only the games played before this date (YYYY-MM-DD; default: every "
-                  "played game)");
+  add_season_file(*cmd, opt->file);
+  add_report_options(*cmd, opt->report);
+  cmd->add_option(
+         "--alpha", opt->alpha,
+         help_text("Family-wise level of the goodness-of-fit tests, between 0 and 1", "0.05"))
+      ->check(real_number({0.0, 1.0, true, true}));
+  cmd->add_option(
+      "--as-of", opt->as_of,
+      help_text("Fit only the games played before this date (YYYY-MM-DD)", "every played game"));
   cmd->callback([opt] {
-    const Format format = parse_format(opt->format);
-    if (!(opt->alpha > 0.0 && opt->alpha < 1.0)) {
-      throw UsageError(fmt::format("--alpha: must be in (0, 1), got {}", opt->alpha));
-    }
-    const config::Season full = config::load_season(opt->file);
-    const config::Season season = config::season_as_of(full, resolve_as_of(full, opt->as_of));
+    const Format format = check_report_options(opt->report);
+    const config::Season full = load_season_file(opt->file);
+    const config::DayNumber as_of = resolve_as_of(full, opt->as_of);
+    const config::Season season = config::season_as_of(full, as_of);
     models::FitReport report;
     try {
       report = models::fit_report(season, opt->alpha);
     } catch (const std::domain_error& e) {
       throw UsageError(fmt::format("{}: cannot fit: {}", opt->file, e.what()));
     }
+    Provenance run = make_provenance(season);
+    run.as_of = as_of;
+    set_model(run, season, report.ratings.shape);
     std::string text;
     switch (format) {
       case Format::kTable:
-        text = render_table(season, report);
+        text = render_table(season, report, run);
         break;
       case Format::kCsv:
-        text = render_csv(season, report);
+        text = render_csv(season, report, run);
         break;
       case Format::kJson:
-        text = render_json(season, report);
+        text = render_json(season, report, run);
         break;
     }
-    write_output(opt->output, text);
+    write_output(opt->report.output, text);
   });
 }
 

@@ -6,12 +6,15 @@
 #include <algorithm>
 #include <cstdint>
 #include <filesystem>
+#include <limits>
+#include <memory>
 #include <optional>
 #include <stdexcept>
 #include <string>
 
 #include "config/load.h"
 #include "engine/simulate.h"
+#include "tools/cli.h"
 #include "tools/commands.h"
 #include "tools/history.h"
 #include "tools/odds_report.h"
@@ -19,6 +22,7 @@
 #include "tools/output.h"
 #include "tools/processes.h"
 #include "tools/progress.h"
+#include "tools/provenance.h"
 
 namespace standfast::tools {
 namespace {
@@ -27,6 +31,7 @@ namespace {
 constexpr std::uint64_t DEFAULT_SEED = 20260101;
 constexpr std::uint64_t DEFAULT_SEASONS = 100000;
 constexpr std::uint64_t MAX_SEASONS = 1'000'000'000;
+constexpr std::uint64_t MAX_THREADS = 1024;
 
 struct OddsOptions {
   std::string season_file;
@@ -34,8 +39,7 @@ struct OddsOptions {
   std::uint64_t seed = DEFAULT_SEED;
   double target_se = 0.0;
   int threads = 0;
-  std::string format = "table";
-  std::string output;
+  ReportOptions report;
   std::string group;
   std::string as_of;
   bool record = false;
@@ -43,27 +47,15 @@ struct OddsOptions {
 };
 
 void run_odds(const OddsOptions& opt) {
-  // Check every option before the (possibly long) run.
-  const Format format = parse_format(opt.format);
-  if (opt.seasons < 1 || opt.seasons > MAX_SEASONS) {
-    throw UsageError(fmt::format("--seasons: expected 1 to {}, got {}", MAX_SEASONS, opt.seasons));
-  }
-  if (!(opt.target_se >= 0.0 && opt.target_se < 0.5)) {
-    throw UsageError(
-        fmt::format("--target-se: expected 0 (off) or a value in (0, 0.5), got {}", opt.target_se));
-  }
-  if (opt.threads < 0) {
-    throw UsageError(fmt::format("--threads: expected 0 (all cores) or more, got {}", opt.threads));
-  }
+  // Every option is checked before the (possibly long) run: the numbers by their validators
+  // while parsing, the format and the output path here.
+  const Format format = check_report_options(opt.report);
 
   // In an MPI run every rank does the same work up to the simulation, plays its share of the
   // seasons, and rank 0 alone prints warnings, progress and the report.
   const bool lead = process_rank() == 0;
   const config::Season season = config::load_season(opt.season_file);
-  if (lead) {
-    for (const auto& w : season.warnings)
-      fmt::print(stderr, "warning: {}\n", config::format_diagnostic(w));
-  }
+  if (lead) print_warnings(season);
   if (!opt.group.empty() &&
       std::none_of(season.groups.begin(), season.groups.end(),
                    [&](const config::Group& g) { return g.id == opt.group; })) {
@@ -108,7 +100,7 @@ void run_odds(const OddsOptions& opt) {
       text = write_odds_json(report);
       break;
   }
-  write_output(opt.output, text);
+  write_output(opt.report.output, text);
 }
 
 }  // namespace
@@ -118,23 +110,31 @@ void add_odds_command(CLI::App& app) {
   auto* cmd = app.add_subcommand(
       "odds",
       "Simulate the rest of the season and print each team's chances of the division, a "
-      "postseason berth, a bye and the title, with its projected record.");
-  cmd->add_option("season", opt->season_file, "Season file (YAML)")->required();
+      "postseason berth, a bye and the title, with its projected record");
+  add_season_file(*cmd, opt->season_file);
   cmd->add_option("--seasons", opt->seasons,
-                  fmt::format("Number of simulated seasons (default {})", DEFAULT_SEASONS));
+                  help_text(fmt::format("Simulated seasons, 1 to {}", MAX_SEASONS),
+                            std::to_string(DEFAULT_SEASONS)))
+      ->check(whole_number(1, MAX_SEASONS));
   cmd->add_option("--seed", opt->seed,
-                  fmt::format("Random seed; the same seed gives the same output for any thread "
-                              "count (default {})",
-                              DEFAULT_SEED));
+                  help_text("Random seed, 0 to 2^64 - 1; the same seed gives the same output for "
+                            "any thread count",
+                            std::to_string(DEFAULT_SEED)))
+      ->check(whole_number(0, std::numeric_limits<std::uint64_t>::max()));
   cmd->add_option("--target-se", opt->target_se,
-                  "Stop early once the largest standard error of any chance is below this "
-                  "(a probability, e.g. 0.002; default 0 = run every season)");
-  cmd->add_option("--threads", opt->threads, "Worker threads (default 0 = all cores)");
-  cmd->add_option("--format", opt->format, "Output format: table, csv or json (default table)");
-  cmd->add_option("-o,--output", opt->output,
-                  "Write to this file (whole or not at all) instead of standard output");
+                  help_text("Stop early once the largest standard error of any chance is below "
+                            "this probability, e.g. 0.002; 0 runs every season",
+                            "0"))
+      ->check(real_number({0.0, 0.5, false, true}));
+  cmd->add_option(
+         "--threads", opt->threads,
+         help_text(fmt::format("Worker threads, 0 to {}; 0 uses every core", MAX_THREADS), "0"))
+      ->check(whole_number(0, MAX_THREADS));
+  add_report_options(*cmd, opt->report);
   cmd->add_option("--group", opt->group,
-                  "Only the teams of this conference or division (its id in the season file)");
+                  help_text("Only the teams of this conference or division (its id in the "
+                            "season file)",
+                            "every team"));
   cmd->add_option("--as-of", opt->as_of,
                   "As-of date YYYY-MM-DD, the morning before its games: games on or after it "
                   "count as not yet played (default: the day after the last played game)");

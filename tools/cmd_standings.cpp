@@ -15,8 +15,10 @@
 #include "engine/clinch.h"
 #include "engine/standings.h"
 #include "tools/certainty_text.h"
+#include "tools/cli.h"
 #include "tools/commands.h"
 #include "tools/output.h"
+#include "tools/provenance.h"
 
 namespace standfast::tools {
 
@@ -62,9 +64,11 @@ std::string through_text(const Standings& st) {
   return st.through ? config::format_date(*st.through) : std::string("(no games played)");
 }
 
-std::string table(const Season& s, const Standings& st, const Certainties& cert) {
+std::string table(const Season& s, const Standings& st, const Certainties& cert,
+                  const Provenance& run) {
   std::string out = fmt::format("{}, {}: standings through {} ({} games played)\n", s.league.name,
                                 s.league.season_label, through_text(st), st.games_played);
+  out += provenance_line(run) + "\n";
   std::size_t name_width = 4;
   for (const auto& t : s.teams) name_width = std::max(name_width, t.name.size());
   for (const auto& g : s.groups) name_width = std::max(name_width, g.name.size());
@@ -126,13 +130,16 @@ std::string table(const Season& s, const Standings& st, const Certainties& cert)
   return out;
 }
 
-std::string csv(const Season& s, const Standings& st, const Certainties& cert) {
+std::string csv(const Season& s, const Standings& st, const Certainties& cert,
+                const Provenance& run) {
   std::string out =
       "conference,division,place,team_id,team,wins,losses,win_pct,games_back,runs_for,"
       "runs_against,run_diff,home_wins,home_losses,road_wins,road_losses,division_wins,"
       "division_losses,conference_wins,conference_losses,last10_wins,last10_losses,streak,seed,"
       "division_status,division_magic,division_elimination,postseason_status,postseason_magic,"
-      "postseason_elimination\n";
+      "postseason_elimination" +
+      provenance_csv_header() + "\n";
+  const std::string run_cells = provenance_csv_cells(run);
   for (const auto& cs : st.conferences) {
     const auto& conf = s.groups[static_cast<std::size_t>(cs.conference)];
     for (const auto& ds : cs.divisions) {
@@ -143,7 +150,7 @@ std::string csv(const Season& s, const Standings& st, const Certainties& cert) {
         const engine::TeamCertainty& c = cert[static_cast<std::size_t>(l.team)];
         out += fmt::format(
             "{},{},{},{},{},{},{},{},{:.1f},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},"
-            "{},{},{},{},{},{}\n",
+            "{},{},{},{},{},{}{}\n",
             csv_field(conf.id), csv_field(div.id), ++place, csv_field(team.id),
             csv_field(team.name), l.wins, l.losses, pct_text(l), l.games_back_halves / 2.0,
             l.runs_for, l.runs_against, l.run_differential(), l.home_wins, l.home_losses,
@@ -153,7 +160,7 @@ std::string csv(const Season& s, const Standings& st, const Certainties& cert) {
             number_field(c.division.elimination),
             s.postseason.enabled ? certainty_word(c.berth.mark) : "",
             s.postseason.enabled ? number_field(c.berth.magic) : "",
-            s.postseason.enabled ? number_field(c.berth.elimination) : "");
+            s.postseason.enabled ? number_field(c.berth.elimination) : "", run_cells);
       }
     }
   }
@@ -169,10 +176,12 @@ nlohmann::ordered_json certainty_json(const engine::OutcomeCertainty& c) {
           {"proof_complete", c.exact}};
 }
 
-std::string json(const Season& s, const Standings& st, const Certainties& cert) {
+std::string json(const Season& s, const Standings& st, const Certainties& cert,
+                 const Provenance& run) {
   using json = nlohmann::ordered_json;
   json doc;
   doc["schema_version"] = SCHEMA_VERSION;
+  doc["run"] = provenance_json(run);
   doc["league"] = s.league.name;
   doc["season"] = s.league.season_label;
   doc["through"] = st.through ? json(config::format_date(*st.through)) : json(nullptr);
@@ -234,36 +243,30 @@ void add_standings_command(CLI::App& app) {
       "standings", "Standings of the played games by conference and division, with the field");
   struct Options {
     std::string file;
-    std::string format = "table";
-    std::string output;
+    ReportOptions report;
   };
   auto opt = std::make_shared<Options>();
-  cmd->add_option("FILE", opt->file, "The season file (YAML)")->required();
-  cmd->add_option("--format", opt->format, "table, csv or json")->default_str("table");
-  cmd->add_option("--output", opt->output, "Write to this file instead of the terminal");
+  add_season_file(*cmd, opt->file);
+  add_report_options(*cmd, opt->report);
   cmd->callback([opt] {
-    const Format format = parse_format(opt->format);
-    const Season season = config::load_season(opt->file);
-    for (const config::Diagnostic& w : season.warnings) {
-      config::Diagnostic d = w;
-      d.message = "warning: " + d.message;
-      fmt::print(stderr, "{}\n", config::format_diagnostic(d));
-    }
+    const Format format = check_report_options(opt->report);
+    const Season season = load_season_file(opt->file);
+    const Provenance run = make_provenance(season);
     const Standings st = engine::compute_standings(season);
     const Certainties cert = engine::exact_certainty(season, engine::clinch_records(season));
     std::string text;
     switch (format) {
       case Format::kTable:
-        text = table(season, st, cert);
+        text = table(season, st, cert, run);
         break;
       case Format::kCsv:
-        text = csv(season, st, cert);
+        text = csv(season, st, cert, run);
         break;
       case Format::kJson:
-        text = json(season, st, cert);
+        text = json(season, st, cert, run);
         break;
     }
-    write_output(opt->output, text);
+    write_output(opt->report.output, text);
   });
 }
 

@@ -5,6 +5,7 @@
 #include <exception>
 
 #include "config/load.h"
+#include "tools/cli.h"
 #include "tools/commands.h"
 #include "tools/processes.h"
 
@@ -15,6 +16,7 @@ int main(int argc, char** argv) {
       "standfast: Monte Carlo season and standings simulator.\n"
       "Odds are model estimates under stated assumptions, not advice for wagering."};
   app.require_subcommand(1);
+  tools::add_version_flag(app);
   tools::add_check_command(app);
   tools::add_standings_command(app);
   tools::add_fit_command(app);

@@ -62,6 +62,14 @@ std::string pad_right(const std::string& s, std::size_t width) {
   return s.size() >= width ? s : s + std::string(width - s.size(), ' ');
 }
 
+// The report's provenance with the seed and season count of the run it holds.
+Provenance run_of(const OddsReport& r) {
+  Provenance p = r.run;
+  p.seed = r.seed;
+  p.seasons = r.seasons;
+  return p;
+}
+
 }  // namespace
 
 OddsReport make_odds_report(const config::Season& season, const engine::SimulationResult& result,
@@ -176,8 +184,8 @@ std::string write_odds_table(const OddsReport& r) {
                      group_digits(r.seasons));
   out += ODDS_CAUTION;
   out += '\n';
-  out += fmt::format("Seed {}; largest standard error {:.2f} percentage points", r.seed,
-                     100.0 * r.max_se);
+  out += provenance_line(run_of(r)) + '\n';
+  out += fmt::format("Largest standard error {:.2f} percentage points", 100.0 * r.max_se);
   out +=
       fmt::format("; extra innings in {:.1f}% of simulated games\n", 100.0 * r.extra_innings_share);
   if (r.stopped_early) {
@@ -268,7 +276,9 @@ std::string write_odds_csv(const OddsReport& r) {
       out += fmt::format(",round{}_p,round{}_se", k + 1, k + 1);
     }
   }
+  out += provenance_csv_header();
   out += '\n';
+  const std::string run_cells = provenance_csv_cells(run_of(r));
   for (const auto& div : r.divisions) {
     for (int row : div.rows) {
       const OddsTeam& t = r.teams[row];
@@ -294,6 +304,7 @@ std::string write_odds_csv(const OddsReport& r) {
           out += fmt::format(",{:.6f},{:.6f}", p.p, p.se);
         }
       }
+      out += run_cells;
       out += '\n';
     }
   }
@@ -304,7 +315,8 @@ std::string write_odds_json(const OddsReport& r) {
   using nlohmann::ordered_json;
   auto chance = [](const engine::Probability& p) { return ordered_json{{"p", p.p}, {"se", p.se}}; };
 
-  ordered_json run = {
+  ordered_json run = provenance_json(run_of(r));
+  const ordered_json details = {
       {"league", r.league},
       {"season", r.season_label},
       {"seed", r.seed},
@@ -319,6 +331,7 @@ std::string write_odds_json(const OddsReport& r) {
       {"postseason", r.postseason},
       {"rounds", r.round_names},
   };
+  for (const auto& [key, value] : details.items()) run[key] = value;
 
   ordered_json teams = ordered_json::array();
   for (const auto& div : r.divisions) {

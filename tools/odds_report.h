@@ -15,6 +15,7 @@
 #include "engine/certainty.h"
 #include "engine/clinch.h"
 #include "engine/simulate.h"
+#include "tools/provenance.h"
 
 namespace standfast::tools {
 
@@ -45,6 +46,7 @@ struct OddsDivision {
 };
 
 struct OddsReport {
+  Provenance run;  // what produced the report (set by the command)
   std::string league, season_label;
   std::uint64_t seed = 0, seasons = 0;
   double max_se = 0, target_se = 0;

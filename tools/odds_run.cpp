@@ -28,11 +28,12 @@ config::DayNumber resolve_as_of(const config::Season& season, const std::string&
 }
 
 engine::SimulationResult simulate_season(const config::Season& season,
-                                         const engine::RunOptions& run) {
+                                         const engine::RunOptions& run, double* shape_used) {
   engine::Plan plan;
   try {
     const models::LeagueRatings ratings = models::fit_ratings(season);
     plan = engine::compile_plan(season, ratings);
+    if (shape_used != nullptr) *shape_used = ratings.shape;
   } catch (const std::domain_error& e) {
     throw UsageError(fmt::format("{}: cannot fit the ratings: {}", season.file, e.what()));
   } catch (const std::invalid_argument& e) {
@@ -48,13 +49,19 @@ OddsRun run_odds_at(const config::Season& full, config::DayNumber as_of,
   out.as_of = as_of;
   out.season = config::season_as_of(full, as_of);
   out.games_played = config::games_played_before(full, as_of);
-  out.result = simulate_season(out.season, run);
+  double shape = 0;
+  out.result = simulate_season(out.season, run, &shape);
+  // What produced the report (tools/provenance.h): the files as given, this as-of date.
+  out.report_run = make_provenance(full);
+  out.report_run.as_of = as_of;
+  set_model(out.report_run, out.season, shape);
   const auto records = engine::clinch_records(out.season);
   // Exact marks and magic numbers (engine/certainty.h; milliseconds).
   const auto certainty = engine::exact_certainty(out.season, records);
   const auto marks = engine::certainty_marks(certainty);
   out.report = make_odds_report(out.season, out.result, records, marks, target_se, only_group);
   attach_certainty(out.report, certainty);
+  out.report.run = out.report_run;
   return out;
 }
 

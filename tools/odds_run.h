@@ -10,6 +10,7 @@
 #include "engine/simulate.h"
 #include "tools/history.h"
 #include "tools/odds_report.h"
+#include "tools/provenance.h"
 
 namespace standfast::tools {
 
@@ -19,6 +20,7 @@ struct OddsRun {
   int games_played = 0;  // played games the fit used
   engine::SimulationResult result;
   OddsReport report;
+  Provenance report_run;  // also in report.run
 };
 
 // The as-of date of a run: `text` (YYYY-MM-DD) when given, else config::default_as_of. Throws
@@ -34,7 +36,8 @@ OddsRun run_odds_at(const config::Season& full, config::DayNumber as_of,
 
 // Only the simulation of `season` as it is (no as-of cut): used for counterfactual runs.
 engine::SimulationResult simulate_season(const config::Season& season,
-                                         const engine::RunOptions& run);
+                                         const engine::RunOptions& run,
+                                         double* shape_used = nullptr);
 
 // The history record of a run (every team of the league, whatever group the report shows).
 HistoryRun history_run(const OddsRun& run, const config::Season& full);

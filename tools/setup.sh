@@ -11,6 +11,7 @@ packages=(build-essential cmake libtbb-dev libboost-math-dev libboost-graph-dev 
 packages+=(libeigen3-dev)  # sparse Cholesky factorisation of the joint fit (models/joint_fit.cpp)
 packages+=(libsqlite3-dev sqlite3)  # the odds history (tools/history.h) and its tests
 packages+=(chromium)  # headless browser of the report page test (tests/browser/check_report.py)
+packages+=(libssl-dev)  # OpenSSL's SHA-256 for the provenance of every report
 missing=()
 for p in "${packages[@]}"; do
   dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")

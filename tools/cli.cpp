@@ -1,0 +1,161 @@
+#include "tools/cli.h"
+
+#include <fmt/core.h>
+#include <unistd.h>
+
+#include <cerrno>
+#include <charconv>
+#include <cmath>
+#include <cstring>
+#include <filesystem>
+#include <limits>
+#include <system_error>
+
+#include "config/load.h"
+#include "tools/commands.h"
+
+#ifndef STANDFAST_VERSION
+#error "STANDFAST_VERSION must be defined by tools/CMakeLists.txt"
+#endif
+
+namespace standfast::tools {
+
+std::string_view program_version() { return STANDFAST_VERSION; }
+
+std::string version_text() {
+  return fmt::format("standfast {} (season-file format {})", program_version(),
+                     config::SEASON_FORMAT_VERSION);
+}
+
+void add_version_flag(CLI::App& app) {
+  app.set_version_flag("--version", version_text(),
+                       help_text("Print the program version and the season-file format version"));
+}
+
+std::string help_text(std::string_view what, std::string_view default_text) {
+  std::string out(what);
+  if (!default_text.empty()) out += fmt::format(" (default: {})", default_text);
+  return out;
+}
+
+CLI::Option* add_season_file(CLI::App& cmd, std::string& file) {
+  return cmd.add_option(std::string(SEASON_FILE_NAME), file, help_text("The season file (YAML)"))
+      ->required();
+}
+
+void add_report_options(CLI::App& cmd, ReportOptions& options) {
+  cmd.add_option("--format", options.format,
+                 help_text("Report format: table, csv or json", "table"));
+  cmd.add_option(
+      "-o,--output", options.output,
+      help_text("Write the report to this file, whole or not at all", "standard output"));
+}
+
+Format check_report_options(const ReportOptions& options) {
+  const Format format = parse_format(options.format);
+  check_output_path(options.output);
+  return format;
+}
+
+void check_output_path(const std::string& path) {
+  if (path.empty() || path == "-") return;
+  namespace fs = std::filesystem;
+  const fs::path target{path};
+  std::error_code ec;
+  if (fs::is_directory(target, ec)) {
+    throw UsageError(fmt::format("--output: '{}' is a folder, not a file", path));
+  }
+  if (!target.has_filename()) {
+    throw UsageError(fmt::format("--output: '{}' names no file", path));
+  }
+  const fs::path folder = target.parent_path().empty() ? fs::path(".") : target.parent_path();
+  const fs::file_status status = fs::status(folder, ec);
+  if (!fs::exists(status)) {
+    throw UsageError(fmt::format("--output: cannot write '{}': the folder '{}' does not exist",
+                                 path, folder.string()));
+  }
+  if (!fs::is_directory(status)) {
+    throw UsageError(
+        fmt::format("--output: cannot write '{}': '{}' is not a folder", path, folder.string()));
+  }
+  if (::access(folder.c_str(), W_OK | X_OK) != 0) {
+    throw UsageError(fmt::format("--output: cannot write '{}': the folder '{}': {}", path,
+                                 folder.string(), std::strerror(errno)));
+  }
+}
+
+namespace {
+
+bool all_digits(std::string_view s) {
+  if (s.empty()) return false;
+  for (char c : s) {
+    if (c < '0' || c > '9') return false;
+  }
+  return true;
+}
+
+}  // namespace
+
+CLI::Validator whole_number(std::uint64_t min, std::uint64_t max) {
+  return CLI::Validator(
+      [min, max](std::string& text) -> std::string {
+        const std::string range = fmt::format("a whole number from {} to {}", min, max);
+        if (!text.empty() && text[0] == '-' && all_digits(std::string_view(text).substr(1))) {
+          return fmt::format("expected {}, got {} (negative)", range, text);
+        }
+        if (!all_digits(text)) return fmt::format("expected {}, got '{}'", range, text);
+        std::uint64_t value = 0;
+        const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
+        if (ec == std::errc::result_out_of_range || value > max) {
+          return fmt::format("expected {}, got {} (too large)", range, text);
+        }
+        if (ec != std::errc{} || end != text.data() + text.size()) {
+          return fmt::format("expected {}, got '{}'", range, text);
+        }
+        if (value < min) return fmt::format("expected {}, got {}", range, text);
+        return {};
+      },
+      "");
+}
+
+CLI::Validator real_number(RealRange r) {
+  return CLI::Validator(
+      [r](std::string& text) -> std::string {
+        const std::string range =
+            fmt::format("a number in {}{:g}, {:g}{}", r.lower_open ? '(' : '[', r.lower, r.upper,
+                        r.upper_open ? ')' : ']');
+        double value = 0;
+        const char* first = text.data();
+        const char* last = text.data() + text.size();
+        if (first != last && *first == '+') ++first;
+        const auto [end, ec] = std::from_chars(first, last, value);
+        if (text.empty() || ec != std::errc{} || end != last || !std::isfinite(value)) {
+          return fmt::format("expected {}, got '{}'", range, text);
+        }
+        const bool below = r.lower_open ? !(value > r.lower) : !(value >= r.lower);
+        const bool above = r.upper_open ? !(value < r.upper) : !(value <= r.upper);
+        if (below || above) return fmt::format("expected {}, got {}", range, text);
+        return {};
+      },
+      "");
+}
+
+std::string warning_line(const config::Diagnostic& warning) {
+  config::Diagnostic d = warning;
+  d.message = "warning: " + d.message;
+  return config::format_diagnostic(d);
+}
+
+void print_warnings(const config::Season& season) {
+  for (const config::Diagnostic& w : season.warnings) {
+    fmt::print(stderr, "{}\n", warning_line(w));
+  }
+}
+
+config::Season load_season_file(const std::string& file) {
+  config::Season season = config::load_season(file);
+  print_warnings(season);
+  return season;
+}
+
+}  // namespace standfast::tools

@@ -1,0 +1,75 @@
+// The command-line layer every subcommand shares: the season-file positional, the report
+// options (--format, -o/--output, checked before any work), checked numeric options, one help
+// style ("(default: X)"), --version, and warnings printed as FILE:LINE:COLUMN: warning: message.
+// DEVELOPERS.md, "How to add a command", shows how a command uses it.
+#ifndef STANDFAST_TOOLS_CLI_H
+#define STANDFAST_TOOLS_CLI_H
+
+#include <CLI/CLI.hpp>
+#include <cstdint>
+#include <string>
+#include <string_view>
+
+#include "config/season.h"
+#include "tools/output.h"
+
+namespace standfast::tools {
+
+// The program version (CMake's project version).
+std::string_view program_version();
+
+// What `standfast --version` prints: the program version and the season-file format version.
+std::string version_text();
+
+// Adds --version to the top-level application.
+void add_version_flag(CLI::App& app);
+
+// Help text in the one style: `what` starts with a capital letter and has no final full stop;
+// a default, when given, is appended as " (default: X)".
+std::string help_text(std::string_view what, std::string_view default_text = {});
+
+// The season-file positional, the same name and help on every command.
+inline constexpr std::string_view SEASON_FILE_NAME = "SEASON_FILE";
+CLI::Option* add_season_file(CLI::App& cmd, std::string& file);
+
+// --format table|csv|json and -o/--output FILE of a command that writes a report.
+struct ReportOptions {
+  std::string format = "table";
+  std::string output;  // empty or "-" = standard output
+};
+void add_report_options(CLI::App& cmd, ReportOptions& options);
+
+// Checks the report options before any work: the format is known and the output path can be
+// written (its folder exists and is writable; the path is not a folder). Throws UsageError.
+Format check_report_options(const ReportOptions& options);
+
+// Throws UsageError when `path` (not empty, not "-") cannot receive an output file: the folder
+// does not exist or is not writable, or the path names a folder.
+void check_output_path(const std::string& path);
+
+// Validators for numeric options. They read the text as given, before CLI11 converts it, so
+// "-5" is refused for an unsigned option instead of wrapping around. A refused value ends the
+// program with exit status 2 and "--option: message".
+//
+// A whole number in [min, max] (digits only; no sign, no fraction, no exponent).
+CLI::Validator whole_number(std::uint64_t min, std::uint64_t max);
+// A finite real number in the range described by `lower`..`upper`, each end open or closed.
+struct RealRange {
+  double lower = 0, upper = 0;
+  bool lower_open = false, upper_open = false;
+};
+CLI::Validator real_number(RealRange range);
+
+// Prints the season's warnings to standard error, one per line, as
+// FILE:LINE:COLUMN: warning: message.
+void print_warnings(const config::Season& season);
+
+// The one text of a warning line (used by print_warnings; exposed for tests).
+std::string warning_line(const config::Diagnostic& warning);
+
+// Loads and validates the season file and prints its warnings. Throws config::ConfigError.
+config::Season load_season_file(const std::string& file);
+
+}  // namespace standfast::tools
+
+#endif  // STANDFAST_TOOLS_CLI_H
