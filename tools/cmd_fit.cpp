@@ -69,16 +69,21 @@ std::string render_table(const config::Season& s, const FitReport& r) {
       "\nTeam ratings. Offence: runs scored relative to the league (higher is better);\n"
       "defence: runs allowed relative to the league (lower is better). ± is the standard\n"
       "error of the log, about the relative error. Plain = own runs only; adjusted = for\n"
-      "opponents, venue and home edge, after shrinkage; free gamma = the team's own shape.\n";
-  out += fmt::format("{:<8} {:>4} {:>5} {:>5}  {:>14} {:>14}  {:>14} {:>14}  {:>13}\n", "team", "G",
-                     "RS/G", "RA/G", "plain off", "plain def", "adj off", "adj def", "free gamma");
+      "opponents, venue and home edge, after shrinkage; free gamma = the team's own shape.\n"
+      "Model RS, model RA: the adjusted ratings in runs per game (league mean x rating, at a\n"
+      "neutral venue against an average opponent), the units an override takes.\n";
+  out += fmt::format("{:<8} {:>4} {:>5} {:>5}  {:>14} {:>14}  {:>14} {:>14}  {:>8} {:>8}  {:>13}\n",
+                     "team", "G", "RS/G", "RA/G", "plain off", "plain def", "adj off", "adj def",
+                     "model RS", "model RA", "free gamma");
   for (size_t i = 0; i < r.teams.size(); ++i) {
     const auto& t = r.teams[i];
     out += fmt::format(
-        "{:<8} {:>4} {:>5.2f} {:>5.2f}  {:>14} {:>14}  {:>14} {:>14}  {:>13}\n", s.teams[i].id,
-        t.games, t.runs_scored, t.runs_allowed, with_se(t.plain_offence, t.plain_scored_se, 3),
+        "{:<8} {:>4} {:>5.2f} {:>5.2f}  {:>14} {:>14}  {:>14} {:>14}  {:>8.3f} {:>8.3f}  {:>13}\n",
+        s.teams[i].id, t.games, t.runs_scored, t.runs_allowed,
+        with_se(t.plain_offence, t.plain_scored_se, 3),
         with_se(t.plain_defence, t.plain_allowed_se, 3), with_se(t.offence, t.log_offence_se, 3),
-        with_se(t.defence, t.log_defence_se, 3),
+        with_se(t.defence, t.log_defence_se, 3), lr.league_mean * t.offence,
+        lr.league_mean * t.defence,
         t.free_shape > 0 ? with_se(t.free_shape, t.free_shape_se, 2) : "-");
   }
 
@@ -151,19 +156,20 @@ std::string render_csv(const config::Season& s, const FitReport& r) {
       "se,"
       "mle_offence,mle_offence_log_se,mle_defence,mle_defence_log_se,"
       "offence,offence_log_se,defence,defence_log_se,chi_square,df,p_value,critical,poor_fit,"
-      "expected_pct,expected_wins,wins_minus_expected\n";
+      "expected_pct,expected_wins,wins_minus_expected,model_runs_scored,model_runs_allowed\n";
   for (size_t i = 0; i < r.teams.size(); ++i) {
     const auto& t = r.teams[i];
     out += fmt::format(
         "team,{},{},{},{},{:.4f},{:.4f},{:.5f},{:.5f},{:.5f},{:.5f},{:.4f},{:.4f},{:.5f},{:.5f},{:."
         "5f},{:.5f},"
-        "{:.5f},{:.5f},{:.5f},{:.5f},{:.4f},{},{:.6g},{:.4f},{},{:.5f},{:.3f},{:.3f}\n",
+        "{:.5f},{:.5f},{:.5f},{:.5f},{:.4f},{},{:.6g},{:.4f},{},{:.5f},{:.3f},{:.3f},{:.4f},{:.4f}"
+        "\n",
         csv_field(s.teams[i].id), t.games, t.wins, t.losses, t.runs_scored, t.runs_allowed,
         t.plain_offence, t.plain_scored_se, t.plain_defence, t.plain_allowed_se, t.free_shape,
         t.free_shape_se, t.mle_offence, t.mle_log_offence_se, t.mle_defence, t.mle_log_defence_se,
         t.offence, t.log_offence_se, t.defence, t.log_defence_se, t.chi_square, t.df, t.p_value,
         t.critical, t.rejected ? "yes" : "no", t.expected_pct, t.expected_wins,
-        t.wins_minus_expected);
+        t.wins_minus_expected, lr.league_mean * t.offence, lr.league_mean * t.defence);
   }
   out += "\nblock,family,shape,parameters,log_lik,aic,delta_aic,converged\n";
   for (const auto& f : r.families) {
@@ -231,7 +237,9 @@ std::string render_json(const config::Season& s, const FitReport& r) {
                       {{"offence", number(t.offence)},
                        {"offence_log_se", number(t.log_offence_se)},
                        {"defence", number(t.defence)},
-                       {"defence_log_se", number(t.log_defence_se)}}},
+                       {"defence_log_se", number(t.log_defence_se)},
+                       {"runs_scored_per_game", number(lr.league_mean * t.offence)},
+                       {"runs_allowed_per_game", number(lr.league_mean * t.defence)}}},
                      {"chi_square",
                       {{"statistic", number(t.chi_square)},
                        {"df", t.df},
