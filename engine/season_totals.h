@@ -106,6 +106,9 @@ class SeasonTotals {
   };
   Sink sink() { return Sink{word_.data(), home_won_.data()}; }
 
+  // Who won each remaining game of the season just played (1 = the home side).
+  const std::uint8_t* home_won() const { return home_won_.data(); }
+
   // Game g, alone in its group and already added (and settled), is given this result instead:
   // the winner's runs are the larger of the two scores (a scenario's forced result).
   void force(std::size_t g, std::uint32_t group, bool home_won);
