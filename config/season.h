@@ -132,14 +132,21 @@ struct ModelSpec {
   SourcePos pos;
 };
 
-// A user's own projection for one team. Runs or a winning percentage replace (blend = 1) or
-// blend with (0 < blend < 1) the fitted values, for games on or after `from`.
+// A user's own projection for one team, for games on or after `from`. Runs or a winning
+// percentage replace (blend = 1) or blend with (0 < blend < 1) the team's values; the added runs
+// then shift them. A replaced value keeps the season's random deviation of the fitted strength
+// (the same relative deviation, or one scaled to `sd_runs` when given), so an override equal to
+// the fitted values changes nothing. Several overrides of a team apply in date order, each on
+// top of the ones before it (an override without `from` comes first).
 struct TeamOverride {
   int team = -1;
   std::optional<double> runs_scored;   // per game
   std::optional<double> runs_allowed;  // per game
   std::optional<double> win_pct;
   double blend = 1.0;
+  double add_runs_scored = 0.0;   // runs per game added to the team's rate (may be negative)
+  double add_runs_allowed = 0.0;  // runs per game added to what it allows (may be negative)
+  std::optional<double> sd_runs;  // standard deviation of the true rate, runs per game
   std::optional<DayNumber> from;  // empty = every remaining game
   SourcePos pos;
 };

@@ -285,9 +285,12 @@ std::optional<double> fit_or_number(YamlContext& ctx, const YAML::Node& n, const
   return v;
 }
 
-SourcePos read_model(YamlContext& ctx, const YAML::Node& node, ModelSpec& model) {
+}  // namespace
+
+SourcePos read_model(YamlContext& ctx, const YAML::Node& node, ModelSpec& model,
+                     const std::string& path) {
   SourcePos family_pos = ctx.pos(node);
-  MapView m(ctx, node, "model",
+  MapView m(ctx, node, path,
             {"family", "shape", "home_edge", "shrink_games", "lopsided", "strength_uncertainty"});
   model.pos = ctx.pos(node);
   if (!m.ok()) return family_pos;
@@ -344,12 +347,14 @@ SourcePos read_model(YamlContext& ctx, const YAML::Node& node, ModelSpec& model)
   return family_pos;
 }
 
-void read_overrides(YamlContext& ctx, const YAML::Node& node, Season& season, const TeamIds& ids) {
-  if (!ctx.is_list(node, "overrides")) return;
+void read_overrides(YamlContext& ctx, const YAML::Node& node, const std::string& list_path,
+                    const TeamIds& ids, std::vector<TeamOverride>& out) {
+  if (!ctx.is_list(node, list_path)) return;
   for (std::size_t i = 0; i < node.size(); ++i) {
-    const std::string path = item("overrides", i);
+    const std::string path = item(list_path, i);
     MapView m(ctx, node[i], path,
-              {"team", "runs_scored", "runs_allowed", "win_pct", "blend", "from"});
+              {"team", "runs_scored", "runs_allowed", "win_pct", "blend", "add_runs_scored",
+               "add_runs_allowed", "sd_runs", "from"});
     if (!m.ok()) continue;
     TeamOverride o;
     o.pos = ctx.pos(node[i]);
@@ -378,12 +383,26 @@ void read_overrides(YamlContext& ctx, const YAML::Node& node, Season& season, co
     std::optional<double> blend;
     number("blend", blend, 0.0, 1.0);
     o.blend = blend.value_or(1.0);
+    std::optional<double> add_scored, add_allowed;
+    number("add_runs_scored", add_scored, -100.0, 100.0);
+    number("add_runs_allowed", add_allowed, -100.0, 100.0);
+    o.add_runs_scored = add_scored.value_or(0.0);
+    o.add_runs_allowed = add_allowed.value_or(0.0);
+    number("sd_runs", o.sd_runs, 0.0, 100.0);
     const bool runs = m.get("runs_scored") || m.get("runs_allowed");
-    if (!runs && !m.get("win_pct")) {
-      ctx.error(node[i], path + ": an override needs runs_scored/runs_allowed or win_pct");
+    const bool adds = m.get("add_runs_scored") || m.get("add_runs_allowed");
+    if (!runs && !m.get("win_pct") && !adds) {
+      ctx.error(node[i], path +
+                             ": an override needs runs_scored/runs_allowed, win_pct or "
+                             "add_runs_scored/add_runs_allowed");
       ok = false;
     } else if (runs && m.get("win_pct")) {
       ctx.error(node[i], path + ": give runs_scored/runs_allowed or win_pct, not both");
+      ok = false;
+    }
+    if (auto n = m.get("sd_runs"); n && !runs) {
+      ctx.error(*n,
+                m.sub("sd_runs") + ": applies to runs_scored/runs_allowed, which are not given");
       ok = false;
     }
     if (auto n = m.get("from")) {
@@ -394,9 +413,11 @@ void read_overrides(YamlContext& ctx, const YAML::Node& node, Season& season, co
       }
       ok = ok && o.from.has_value();
     }
-    if (ok) season.overrides.push_back(o);
+    if (ok) out.push_back(o);
   }
 }
+
+namespace {
 
 void check_log5(YamlContext& ctx, const Season& season, const SourcePos& family_pos) {
   if (season.model.family != ScoreFamily::kLog5) return;
@@ -496,8 +517,9 @@ void read_all(YamlContext& ctx, const YAML::Node& root, Season& season, YamlResu
   }
   if (auto n = top.get("tiebreakers")) read_tiebreakers(ctx, *n, season.tiebreakers);
   SourcePos family_pos{ctx.file(), 0, 0};
-  if (auto n = top.get("model")) family_pos = read_model(ctx, *n, season.model);
-  if (auto n = top.get("overrides")) read_overrides(ctx, *n, season, out.teams);
+  if (auto n = top.get("model")) family_pos = read_model(ctx, *n, season.model, "model");
+  if (auto n = top.get("overrides"))
+    read_overrides(ctx, *n, "overrides", out.teams, season.overrides);
   check_log5(ctx, season, family_pos);
   if (auto n = top.get("games")) read_games(ctx, *n, season, out.teams);
   if (auto n = top.get("games_file")) {

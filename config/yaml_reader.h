@@ -4,10 +4,12 @@
 
 #include <optional>
 #include <string>
+#include <vector>
 
 #include "config/games.h"
 #include "config/report.h"
 #include "config/season.h"
+#include "config/yaml_node.h"
 
 namespace standfast::config::detail {
 
@@ -18,6 +20,15 @@ struct YamlResult {
   SourcePos games_per_team_pos;
   TeamIds teams;
 };
+
+// The model section at `path` ("model" in a season file) into `model`, changing only the keys
+// given; returns the position of the family (for messages about it).
+SourcePos read_model(YamlContext& ctx, const YAML::Node& node, ModelSpec& model,
+                     const std::string& path);
+
+// A list of team overrides at `path` ("overrides" in a season file), appended to `out`.
+void read_overrides(YamlContext& ctx, const YAML::Node& node, const std::string& path,
+                    const TeamIds& ids, std::vector<TeamOverride>& out);
 
 // Parses `text` (named season.file in messages) into `season`, reporting every problem. A YAML
 // syntax error is reported at its position and ends the reading.

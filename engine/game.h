@@ -121,6 +121,17 @@ class ExtraInnings {
   template <class SidesOf>
   std::size_t play_all(Rng& rng, std::size_t n, SidesOf&& sides, std::uint32_t* open, Outcome* out,
                        bool cap_innings) const {
+    return play_all_with([&rng](std::uint32_t, int) { return rng(); }, n, sides, open, out,
+                         cap_innings);
+  }
+
+  // The same with the random bits of game i's inning `number` (0 for the draw at the cap) from
+  // bits(i, number), called in the order play_all draws. A source keyed by the game rather than
+  // a shared stream keeps every game's extra innings the same when other games' ties change
+  // (common random numbers across scenarios, engine/compare.h).
+  template <class Bits, class SidesOf>
+  std::size_t play_all_with(Bits&& bits, std::size_t n, SidesOf&& sides, std::uint32_t* open,
+                            Outcome* out, bool cap_innings) const {
     for (std::size_t i = 0; i < n; ++i) {
       open[i] = static_cast<std::uint32_t>(i);
       out[i] = Outcome{};
@@ -128,14 +139,15 @@ class ExtraInnings {
     std::size_t still_open = n;
     for (int number = regulation_ + 1; still_open > 0; ++number) {
       if (cap_innings && max_innings_ > 0 && number > max_innings_) {
-        for (std::size_t k = 0; k < still_open; ++k) out[open[k]].home_won = (rng() >> 63) != 0;
+        for (std::size_t k = 0; k < still_open; ++k)
+          out[open[k]].home_won = (bits(open[k], 0) >> 63) != 0;
         return still_open;
       }
       std::size_t next = 0;
       for (std::size_t k = 0; k < still_open; ++k) {
         const std::uint32_t i = open[k];
         const Sides& p = sides(i);
-        const Inning x = inning(rng(), p.home_chance, p.away_chance);
+        const Inning x = inning(bits(i, number), p.home_chance, p.away_chance);
         out[i].home_runs += static_cast<std::uint32_t>(x.home);
         out[i].away_runs += static_cast<std::uint32_t>(x.away);
         out[i].home_won = x.home > x.away;

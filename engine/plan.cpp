@@ -133,7 +133,8 @@ void compile_postseason(const config::Season& season, Plan& plan) {
 
 }  // namespace
 
-Plan compile_plan(const config::Season& season, const models::LeagueRatings& ratings) {
+Plan compile_plan(const config::Season& season, const models::LeagueRatings& ratings,
+                  const PlanEdits& edits) {
   Plan plan;
   const int n = static_cast<int>(season.teams.size());
   if (n < 2) fail("a league needs at least two teams, got " + std::to_string(n));
@@ -193,36 +194,62 @@ Plan compile_plan(const config::Season& season, const models::LeagueRatings& rat
     plan.win_pct[t] = rs / (rs + ra);
   }
 
-  // Overrides.
-  plan.overrides.assign(un, SlotOverride{});
-  std::vector<std::optional<config::DayNumber>> from(un);
-  std::vector<bool> has(un, false);
+  // Overrides: per team in date order (no `from` first, file order within a date); each
+  // distinct date opens a period whose steps are every override of the team up to it.
+  std::vector<std::vector<const config::TeamOverride*>> by_team(un);
   for (const auto& o : season.overrides) {
     if (o.team < 0 || o.team >= n) fail("override for team index " + std::to_string(o.team));
-    const auto t = static_cast<std::size_t>(o.team);
-    SlotOverride& s = plan.overrides[t];
-    if (o.runs_scored) {
-      s.has_runs_scored = true;
-      s.offence = *o.runs_scored / plan.league_mean;
-    }
-    if (o.runs_allowed) {
-      s.has_runs_allowed = true;
-      s.defence = *o.runs_allowed / plan.league_mean;
-    }
-    if (o.win_pct) {
-      s.has_win_pct = true;
-      s.win_pct = *o.win_pct;
-    }
-    s.blend = o.blend;
-    from[t] = o.from;
-    has[t] = true;
+    by_team[static_cast<std::size_t>(o.team)].push_back(&o);
   }
-  const bool any_override = std::any_of(has.begin(), has.end(), [](bool b) { return b; });
-  plan.slots = any_override ? 2 * n : n;
-  if (plan.model == GameModel::kLog5)
-    for (std::size_t t = 0; t < un; ++t)
-      if (!plan.overrides[t].has_win_pct && has[t])
+  constexpr config::DayNumber FROM_START = std::numeric_limits<config::DayNumber>::min();
+  auto from_of = [](const config::TeamOverride* o) { return o->from ? *o->from : FROM_START; };
+  std::vector<int> first_period(un, -1), period_count(un, 0);
+  for (std::size_t t = 0; t < un; ++t) {
+    auto& list = by_team[t];
+    std::stable_sort(list.begin(), list.end(),
+                     [&](const auto* a, const auto* b) { return from_of(a) < from_of(b); });
+    std::vector<OverrideStep> steps;
+    for (std::size_t i = 0; i < list.size(); ++i) {
+      const config::TeamOverride& o = *list[i];
+      OverrideStep st;
+      if (o.runs_scored) {
+        st.has_runs_scored = true;
+        st.offence = *o.runs_scored / plan.league_mean;
+      }
+      if (o.runs_allowed) {
+        st.has_runs_allowed = true;
+        st.defence = *o.runs_allowed / plan.league_mean;
+      }
+      if (o.win_pct) {
+        st.has_win_pct = true;
+        st.win_pct = *o.win_pct;
+      }
+      st.blend = o.blend;
+      st.add_offence = o.add_runs_scored / plan.league_mean;
+      st.add_defence = o.add_runs_allowed / plan.league_mean;
+      const auto& r = ratings.teams[t];
+      // sd_runs / runs is the stated standard deviation of the log rate; the drawn deviation has
+      // the fitted one (no spread to scale when the fit has none).
+      if (o.sd_runs && o.runs_scored && r.log_offence_se > 0)
+        st.offence_scale = *o.sd_runs / *o.runs_scored / r.log_offence_se;
+      if (o.sd_runs && o.runs_allowed && r.log_defence_se > 0)
+        st.defence_scale = *o.sd_runs / *o.runs_allowed / r.log_defence_se;
+      if (plan.model == GameModel::kLog5 && (o.add_runs_scored != 0 || o.add_runs_allowed != 0))
+        fail("team '" + season.teams[t].id +
+             "': added runs need a scoring family; the log5 model takes win_pct only");
+      steps.push_back(st);
+      const bool last_of_date = i + 1 == list.size() || from_of(list[i + 1]) != from_of(list[i]);
+      if (!last_of_date) continue;
+      if (plan.model == GameModel::kLog5 &&
+          std::none_of(steps.begin(), steps.end(), [](const auto& x) { return x.has_win_pct; }))
         fail("team '" + season.teams[t].id + "': the log5 model needs a win_pct override");
+      if (first_period[t] < 0) first_period[t] = static_cast<int>(plan.overrides.size());
+      ++period_count[t];
+      plan.overrides.push_back(SlotOverride{static_cast<std::uint16_t>(t), from_of(&o), steps});
+    }
+  }
+  plan.slots = n + static_cast<int>(plan.overrides.size());
+  if (plan.slots > 65535) fail("too many overrides: " + std::to_string(plan.overrides.size()));
 
   // Teams and groups.
   for (const auto& t : season.teams) {
@@ -261,18 +288,43 @@ Plan compile_plan(const config::Season& season, const models::LeagueRatings& rat
     const auto& d = season.games[static_cast<std::size_t>(i)].date;
     return d ? *d : UNDATED;
   };
-  std::stable_sort(order.begin(), order.end(), [&](int a, int b) { return day_of(a) < day_of(b); });
+  // Draw order: by date, added games (PlanEdits) after all the others.
+  const auto added = [&](int i) { return edits.added_from >= 0 && i >= edits.added_from; };
+  std::stable_sort(order.begin(), order.end(), [&](int a, int b) {
+    return std::pair(added(a), day_of(a)) < std::pair(added(b), day_of(b));
+  });
+  // Removed and forced games, by index into Season::games (0 = neither).
+  std::vector<std::int8_t> edit(season.games.size(), 0);
+  constexpr std::int8_t REMOVED = 1, HOME_WINS = 2, AWAY_WINS = 3;
+  auto mark = [&](int i, std::int8_t what) {
+    if (i < 0 || static_cast<std::size_t>(i) >= season.games.size())
+      fail("scenario edit of game index " + std::to_string(i) + ": no such game");
+    const auto& g = season.games[static_cast<std::size_t>(i)];
+    if (g.played && g.date) fail("scenario edit of game " + std::to_string(i) + ": already played");
+    if (edit[static_cast<std::size_t>(i)] != 0)
+      fail("game " + std::to_string(i) + " is removed or decided twice");
+    edit[static_cast<std::size_t>(i)] = what;
+  };
+  for (int i : edits.removed) mark(i, REMOVED);
+  for (const auto& [i, home_wins] : edits.forced) mark(i, home_wins ? HOME_WINS : AWAY_WINS);
   // Matchups: games with the same slots and venue factors; a matchup is closed after
-  // TotalsLayout::MAX_GROUP_GAMES games (the season's tally groups games by matchup).
-  std::map<std::tuple<std::uint16_t, std::uint16_t, float, float>, std::uint32_t> matchup_index;
+  // TotalsLayout::MAX_GROUP_GAMES games (the season's tally groups games by matchup). A forced
+  // game has a matchup of its own; removed games have their own matchups, numbered last.
+  std::map<std::tuple<std::uint16_t, std::uint16_t, float, float>, std::uint32_t> matchup_index,
+      removed_index;
   std::vector<std::uint32_t> matchup_size;
+  std::vector<Matchup> removed_matchups;
+  std::vector<std::uint32_t> removed_size;
+  constexpr std::uint32_t REMOVED_TAG = 1u << 31;
   for (int i : order) {
     const auto& g = season.games[static_cast<std::size_t>(i)];
     const config::DayNumber day = day_of(i);
-    auto slot = [&](int team) {
+    auto slot = [&](int team) {  // the team's latest period that has begun by `day`
       const auto t = static_cast<std::size_t>(team);
-      const bool over = has[t] && (!from[t] || day >= *from[t]);
-      return static_cast<std::uint16_t>(over ? team + n : team);
+      int s = team;
+      for (int k = first_period[t]; k >= 0 && k < first_period[t] + period_count[t]; ++k)
+        if (plan.overrides[static_cast<std::size_t>(k)].from <= day) s = n + k;
+      return static_cast<std::uint16_t>(s);
     };
     plan.home_team.push_back(static_cast<std::uint16_t>(g.home));
     plan.away_team.push_back(static_cast<std::uint16_t>(g.away));
@@ -280,24 +332,54 @@ Plan compile_plan(const config::Season& season, const models::LeagueRatings& rat
     const Matchup m{slot(g.home), slot(g.away), static_cast<float>(rf * plan.home_edge),
                     static_cast<float>(rf)};
     const auto key = std::make_tuple(m.home_slot, m.away_slot, m.home_factor, m.away_factor);
-    auto it = matchup_index.find(key);
-    if (it == matchup_index.end() || matchup_size[it->second] == TotalsLayout::MAX_GROUP_GAMES) {
-      it = matchup_index.insert_or_assign(key, static_cast<std::uint32_t>(plan.matchups.size()))
-               .first;
+    const std::int8_t what = edit[static_cast<std::size_t>(i)];
+    if (what == REMOVED) {
+      auto it = removed_index.find(key);
+      if (it == removed_index.end() || removed_size[it->second] == TotalsLayout::MAX_GROUP_GAMES) {
+        it =
+            removed_index.insert_or_assign(key, static_cast<std::uint32_t>(removed_matchups.size()))
+                .first;
+        removed_matchups.push_back(m);
+        removed_size.push_back(0);
+      }
+      ++removed_size[it->second];
+      plan.game_matchup.push_back(it->second | REMOVED_TAG);
+    } else if (what != 0) {
+      plan.forced.push_back(ForcedGame{static_cast<std::uint32_t>(plan.game_matchup.size()),
+                                       static_cast<std::uint32_t>(plan.matchups.size()),
+                                       what == HOME_WINS});
+      plan.game_matchup.push_back(static_cast<std::uint32_t>(plan.matchups.size()));
       plan.matchups.push_back(m);
-      matchup_size.push_back(0);
+      matchup_size.push_back(1);
+    } else {
+      auto it = matchup_index.find(key);
+      if (it == matchup_index.end() || matchup_size[it->second] == TotalsLayout::MAX_GROUP_GAMES) {
+        it = matchup_index.insert_or_assign(key, static_cast<std::uint32_t>(plan.matchups.size()))
+                 .first;
+        plan.matchups.push_back(m);
+        matchup_size.push_back(0);
+      }
+      ++matchup_size[it->second];
+      plan.game_matchup.push_back(it->second);
     }
-    ++matchup_size[it->second];
-    plan.game_matchup.push_back(it->second);
     plan.day.push_back(day);
     plan.game_index.push_back(i);
   }
 
-  for (int t = 0; t < n; ++t)
-    plan.final_slot.push_back(
-        static_cast<std::uint16_t>(has[static_cast<std::size_t>(t)] ? t + n : t));
+  for (std::size_t t = 0; t < un; ++t)
+    plan.final_slot.push_back(static_cast<std::uint16_t>(
+        period_count[t] > 0 ? n + first_period[t] + period_count[t] - 1 : static_cast<int>(t)));
+  plan.counted_matchups = static_cast<std::uint32_t>(plan.matchups.size());
+  for (auto& m : plan.game_matchup)
+    if (m & REMOVED_TAG) m = (m & ~REMOVED_TAG) + plan.counted_matchups;
+  plan.matchups.insert(plan.matchups.end(), removed_matchups.begin(), removed_matchups.end());
+  plan.chronological.resize(order.size());
+  std::iota(plan.chronological.begin(), plan.chronological.end(), 0u);
+  std::stable_sort(plan.chronological.begin(), plan.chronological.end(),
+                   [&](std::uint32_t a, std::uint32_t b) { return plan.day[a] < plan.day[b]; });
   plan.played = played_record(season);
-  plan.totals = TotalsLayout(plan.home_team, plan.away_team, plan.game_matchup, plan.played);
+  plan.totals = TotalsLayout(plan.home_team, plan.away_team, plan.game_matchup, plan.played,
+                             plan.counted_matchups, plan.chronological);
   plan.seeder = Seeder(season);
   compile_postseason(season, plan);
   return plan;

@@ -6,6 +6,7 @@
 
 #include <cstdint>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "config/season.h"
@@ -23,14 +24,25 @@ namespace standfast::engine {
 // How a game's outcome is drawn.
 enum class GameModel { kWeibull, kNegativeBinomial, kPoisson, kLog5 };
 
-// A team's parameter set. Slot t (t < teams) holds team t's fitted values; slot teams + t holds
-// its values after an override date, when it has one.
-struct SlotOverride {
+// One override of a team as the season loop applies it (config::TeamOverride, in plan units).
+struct OverrideStep {
   bool has_runs_scored = false, has_runs_allowed = false, has_win_pct = false;
   double offence = 1.0;  // runs scored / league mean (multiplier), when has_runs_scored
   double defence = 1.0;  // runs allowed / league mean (multiplier), when has_runs_allowed
   double win_pct = 0.5;  // when has_win_pct
-  double blend = 1.0;    // weight of the override against the drawn values
+  double blend = 1.0;    // weight of the stated values against the team's current ones
+  double add_offence = 0.0, add_defence = 0.0;  // added runs per game / league mean
+  // A stated value carries the season's deviation of the fitted strength: it is multiplied by
+  // exp(scale x), x the drawn log deviation; 1 keeps the fitted spread, sd_runs sets another.
+  double offence_scale = 1.0, defence_scale = 1.0;
+};
+
+// A team's parameter set over one period: slot teams + k holds overrides[k], the team's values
+// from `from` (the date of one of its overrides) to its next override.
+struct SlotOverride {
+  std::uint16_t team = 0;
+  config::DayNumber from = 0;       // first day of the period (INT32_MIN: from the start)
+  std::vector<OverrideStep> steps;  // every override of the team in effect, in date order
 };
 
 // A distinct (home slot, away slot, venue factors) combination of the remaining games. A season
@@ -38,6 +50,25 @@ struct SlotOverride {
 struct Matchup {
   std::uint16_t home_slot = 0, away_slot = 0;
   float home_factor = 1, away_factor = 1;
+};
+
+// A remaining game whose result a scenario states: it is drawn as usual (so every later draw
+// stays the same) and then given this result; it has a matchup of its own.
+struct ForcedGame {
+  std::uint32_t game = 0;     // index into the plan's remaining games
+  std::uint32_t matchup = 0;  // its own matchup
+  bool home_won = false;
+};
+
+// What a scenario changes in the schedule, as compile_plan applies it. Games keep their place
+// in the order of draws whatever the edits, so that two plans of one season use each random
+// number for the same game (common random numbers): a removed game is still drawn but counts
+// for nobody, a forced game is drawn and then given its result, and added games (the last ones
+// of Season::games, from `added_from` on) are drawn after all the others.
+struct PlanEdits {
+  std::vector<int> removed;                  // indexes into Season::games (remaining games)
+  std::vector<std::pair<int, bool>> forced;  // (index into Season::games, home wins)
+  int added_from = -1;                       // -1: no added games
 };
 
 // One postseason round as the engine plays it.
@@ -82,9 +113,9 @@ class Plan {
   bool draw_strengths = false;
   std::vector<double> win_pct;  // log5 strengths (per team), from overrides or ratings
 
-  // Overrides: slot teams + t of team t (empty when no team has overrides).
-  std::vector<SlotOverride> overrides;    // size teams (has_* all false when none)
-  int slots = 0;                          // teams, or 2 * teams with overrides
+  // Overrides: slot t (t < teams) is team t's fitted values, slot teams + k is overrides[k].
+  std::vector<SlotOverride> overrides;    // grouped by team, in date order within a team
+  int slots = 0;                          // teams + overrides.size()
   std::vector<std::uint16_t> final_slot;  // per team: its slot after the last game (postseason)
 
   // Remaining games, in date order (undated last, in file order). A game's slots and venue
@@ -94,7 +125,12 @@ class Plan {
   std::vector<int> game_index;              // index into Season::games
   std::vector<Matchup> matchups;            // distinct combinations, in first-game order
   std::vector<std::uint32_t> game_matchup;  // per remaining game: index into matchups
-  TotalsLayout totals;                      // how the season loop tallies its results
+  // Matchups from counted_matchups on hold only removed games (PlanEdits): drawn, not counted.
+  std::uint32_t counted_matchups = 0;
+  std::vector<ForcedGame> forced;            // games with a stated result (PlanEdits)
+  std::vector<std::uint32_t> chronological;  // remaining games by date (the draw order,
+                                             // unless games were added)
+  TotalsLayout totals;                       // how the season loop tallies its results
 
   // Teams and groups.
   std::vector<std::string> team_ids;
@@ -122,7 +158,8 @@ class Plan {
 
 // Compiles the season and the fitted ratings. Throws std::invalid_argument naming the problem
 // when they do not fit together (team counts, a bracket that cannot be played).
-Plan compile_plan(const config::Season& season, const models::LeagueRatings& ratings);
+Plan compile_plan(const config::Season& season, const models::LeagueRatings& ratings,
+                  const PlanEdits& edits = {});
 
 }  // namespace standfast::engine
 

@@ -33,6 +33,13 @@ inline std::uint64_t mix64(std::uint64_t z) {
   return z ^ (z >> 31);
 }
 
+// 64 random bits for item (a, b) under `key`: output number a * 2^20 + b + 1 of the SplitMix64
+// generator started at `key` (Steele, Lea & Flood 2014), so any item is reached without
+// drawing the ones before it. a < 2^44, b < 2^20.
+inline std::uint64_t keyed_bits(std::uint64_t key, std::uint64_t a, std::uint64_t b) {
+  return mix64(key + ((a << 20 | b) + 1) * 0x9e3779b97f4a7c15ull);
+}
+
 // The 128-bit starting state of block `block` of the run with this seed.
 pcg_extras::pcg128_t stream_state(std::uint64_t seed, std::uint64_t block);
 

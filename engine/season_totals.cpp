@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <stdexcept>
 #include <string>
+#include <utility>
 
 namespace standfast::engine {
 
@@ -23,8 +24,13 @@ bool in_scope(const SeasonRecord& r, config::TiebreakScope scope, int a, int b) 
 }  // namespace
 
 TotalsLayout::TotalsLayout(std::span<const std::uint16_t> home, std::span<const std::uint16_t> away,
-                           std::span<const std::uint32_t> group, const SeasonRecord& base)
+                           std::span<const std::uint32_t> group, const SeasonRecord& base,
+                           std::uint32_t counted, std::span<const std::uint32_t> chronological)
     : teams_(base.team_count()), games_(home.size()) {
+  if (!chronological.empty() && chronological.size() != home.size())
+    throw std::invalid_argument("TotalsLayout: the chronological order lists " +
+                                std::to_string(chronological.size()) + " games, not " +
+                                std::to_string(home.size()));
   if (home.size() != away.size() || home.size() != group.size())
     throw std::invalid_argument("TotalsLayout: home, away and group lists differ in length");
   const auto n = static_cast<std::size_t>(teams_);
@@ -41,6 +47,8 @@ TotalsLayout::TotalsLayout(std::span<const std::uint16_t> home, std::span<const 
     if (k >= count)
       throw std::invalid_argument("TotalsLayout: game " + std::to_string(g) + " has group " +
                                   std::to_string(k) + "; groups are numbered from 0");
+    all_groups_ = std::max<std::size_t>(all_groups_, k + 1);
+    if (k >= counted) continue;  // counts for nobody
     const bool same_div = base.division_of(h) == base.division_of(a);
     const bool same_conf = base.conference_of(h) == base.conference_of(a);
     if (k >= groups_.size()) groups_.resize(k + 1, Group{0, 0, -1, 0});
@@ -73,7 +81,9 @@ TotalsLayout::TotalsLayout(std::span<const std::uint16_t> home, std::span<const 
     const auto size = static_cast<std::size_t>(w.games);
     // One backward pass: each team's last `size` games in scope, newest first.
     std::vector<WindowTeam> per_team(n);
-    for (std::size_t g = count; g-- > 0;) {
+    for (std::size_t c = count; c-- > 0;) {
+      const std::size_t g = chronological.empty() ? c : chronological[c];
+      if (group[g] >= counted) continue;
       const int h = home[g], a = away[g];
       if (!in_scope(base, w.scope, h, a)) continue;
       for (int t : {h, a}) {
@@ -97,7 +107,7 @@ TotalsLayout::TotalsLayout(std::span<const std::uint16_t> home, std::span<const 
 
 SeasonTotals::SeasonTotals(const TotalsLayout& layout)
     : layout_(&layout),
-      word_(layout.groups_.size()),
+      word_(std::max(layout.all_groups_, layout.groups_.size())),
       home_won_(layout.games()),
       team_credit_(static_cast<std::size_t>(layout.teams_)),
       team_runs_(static_cast<std::size_t>(layout.teams_)) {
@@ -108,6 +118,15 @@ SeasonTotals::SeasonTotals(const TotalsLayout& layout)
 }
 
 void SeasonTotals::clear() { std::fill(word_.begin(), word_.end(), 0); }
+
+void SeasonTotals::force(std::size_t g, std::uint32_t group, bool home_won) {
+  constexpr std::uint64_t RUNS_MASK = (1u << 26) - 1u;
+  const std::uint64_t w = word_[group];
+  std::uint64_t home_runs = (w >> 26) & RUNS_MASK, away_runs = w & RUNS_MASK;
+  if (home_won != (home_runs > away_runs)) std::swap(home_runs, away_runs);
+  word_[group] = static_cast<std::uint64_t>(home_won) << 52 | home_runs << 26 | away_runs;
+  home_won_[g] = static_cast<std::uint8_t>(home_won);
+}
 
 void SeasonTotals::add_to(SeasonRecord& record) {
   const TotalsLayout& l = *layout_;

@@ -35,11 +35,17 @@ class TotalsLayout {
   // `base` is the record the games are added to (its teams' divisions and conferences, its
   // windows and its results so far). Throws std::invalid_argument naming the game or group when
   // the lists disagree or a limit is passed.
+  // Groups numbered `counted` or more hold games that are played but count for nobody (a
+  // scenario's removed games). `chronological` lists the games by date when that is not their
+  // order in the lists (a scenario's added games come last); empty = the lists' order.
   TotalsLayout(std::span<const std::uint16_t> home, std::span<const std::uint16_t> away,
-               std::span<const std::uint32_t> group, const SeasonRecord& base);
+               std::span<const std::uint32_t> group, const SeasonRecord& base,
+               std::uint32_t counted = UINT32_MAX,
+               std::span<const std::uint32_t> chronological = {});
 
   std::size_t games() const { return games_; }
-  std::size_t groups() const { return groups_.size(); }
+  std::size_t groups() const { return groups_.size(); }   // counted groups
+  std::size_t all_groups() const { return all_groups_; }  // with those that count for nobody
   int teams() const { return teams_; }
 
  private:
@@ -58,7 +64,7 @@ class TotalsLayout {
   };
 
   int teams_ = 0;
-  std::size_t games_ = 0;
+  std::size_t games_ = 0, all_groups_ = 0;
   std::vector<Group> groups_;
   std::vector<std::int32_t> games_left_, division_left_, conference_left_;  // per team
   std::vector<WindowTeam> windows_;  // only teams with games left in the window's scope
@@ -99,6 +105,13 @@ class SeasonTotals {
     }
   };
   Sink sink() { return Sink{word_.data(), home_won_.data()}; }
+
+  // Who won each remaining game of the season just played (1 = the home side).
+  const std::uint8_t* home_won() const { return home_won_.data(); }
+
+  // Game g, alone in its group and already added (and settled), is given this result instead:
+  // the winner's runs are the larger of the two scores (a scenario's forced result).
+  void force(std::size_t g, std::uint32_t group, bool home_won);
 
   // Adds the season's games to `record`, which holds the layout's base record. The last-games
   // windows are deferred (SeasonRecord::defer_windows): this object must stay unchanged until

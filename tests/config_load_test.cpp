@@ -375,7 +375,8 @@ TEST_CASE("an override naming an unknown team is refused") {
 TEST_CASE("an override giving neither runs nor a win percentage is refused") {
   CHECK(errors_of(BASE +
                   "overrides:\n  - {team: AAA, win_pct: 0.6}\n  - {team: AAA, blend: 0.5}\n") ==
-        "t.yaml:16:5: overrides[1]: an override needs runs_scored/runs_allowed or win_pct");
+        "t.yaml:16:5: overrides[1]: an override needs runs_scored/runs_allowed, win_pct or "
+        "add_runs_scored/add_runs_allowed");
 }
 
 TEST_CASE("the log5 family needs a win percentage for every team") {

@@ -107,7 +107,7 @@ TEST_CASE("brackets: byes, round alignment and bad shapes") {
   CHECK_THROWS_AS(compile_plan(even, ratings(8)), std::invalid_argument);
 }
 
-TEST_CASE("overrides switch a team to its second slot from their date on") {
+TEST_CASE("overrides switch a team to its override slot from their date on") {
   auto s = league(6, 2);
   config::TeamOverride o;
   o.team = 0;
@@ -115,12 +115,39 @@ TEST_CASE("overrides switch a team to its second slot from their date on") {
   o.from = 19000 + 4;
   s.overrides.push_back(o);
   const Plan p = compile_plan(s, ratings(8));
-  REQUIRE(p.slots == 16);
-  CHECK(p.matchups[p.game_matchup[0]].home_slot == 0);      // day 3: before the override
-  CHECK(p.matchups[p.game_matchup[1]].away_slot == 0 + 8);  // day 5: team 0 away, override on
-  CHECK(p.overrides[0].offence == Approx(6.6 / 4.4));
+  REQUIRE(p.slots == 9);
+  CHECK(p.matchups[p.game_matchup[0]].home_slot == 0);  // day 3: before the override
+  CHECK(p.matchups[p.game_matchup[1]].away_slot == 8);  // day 5: team 0 away, override on
+  REQUIRE(p.overrides.size() == 1);
+  REQUIRE(p.overrides[0].steps.size() == 1);
+  CHECK(p.overrides[0].steps[0].offence == Approx(6.6 / 4.4));
   CHECK(p.final_slot[0] == 8);
   CHECK(p.final_slot[1] == 1);
+}
+
+TEST_CASE("several overrides of a team apply in date order, each on top of the earlier ones") {
+  auto s = league(6, 2);
+  config::TeamOverride late;  // listed first, applies last
+  late.team = 0;
+  late.runs_allowed = 3.3;
+  late.from = 19000 + 4;
+  config::TeamOverride early;
+  early.team = 0;
+  early.add_runs_scored = 0.44;
+  early.from = 19000 + 2;
+  s.overrides = {late, early};
+  const Plan p = compile_plan(s, ratings(8));
+  REQUIRE(p.slots == 10);
+  REQUIRE(p.overrides.size() == 2);
+  CHECK(p.overrides[0].from == 19002);
+  REQUIRE(p.overrides[0].steps.size() == 1);
+  CHECK(p.overrides[0].steps[0].add_offence == Approx(0.1));
+  CHECK(p.overrides[1].from == 19004);
+  REQUIRE(p.overrides[1].steps.size() == 2);  // the added runs stay on
+  CHECK(p.overrides[1].steps[1].defence == Approx(3.3 / 4.4));
+  CHECK(p.matchups[p.game_matchup[0]].home_slot == 8);  // day 3: first period
+  CHECK(p.matchups[p.game_matchup[1]].away_slot == 9);  // day 5: second period
+  CHECK(p.final_slot[0] == 9);
 }
 
 TEST_CASE("matchups group games with the same slots and factors, at most 2047 games each") {

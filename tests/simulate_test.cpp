@@ -19,6 +19,7 @@
 #include <numeric>
 #include <thread>
 
+#include "config/load.h"
 #include "engine/game.h"
 #include "models/ratings.h"
 
@@ -548,4 +549,64 @@ TEST_CASE("regular-season ties and drawn games match closed forms of the stated 
   const double drawn_share = static_cast<double>(r.drawn_games) / m;
   INFO("drawn share of ties " << drawn_share << " expected " << p_draw);
   CHECK(std::abs(drawn_share - p_draw) <= 4 * std::sqrt(p_draw * (1 - p_draw) / m));
+}
+
+TEST_CASE("an override equal to the fitted rates leaves the odds within Monte Carlo noise") {
+  // The demo league (invented data, used here only as a realistic league): one team's override
+  // states the runs per game `standfast fit` prints for it (league mean x rating). The override
+  // keeps the fitted strength's uncertainty, so the odds must agree with the plain run within
+  // 3 standard errors of the difference (the issue's bound; unpaired errors, the larger).
+  const config::Season base =
+      config::load_season(STANDFAST_SOURCE_DIR "/scenarios/demo/season.yaml");
+  const models::LeagueRatings ratings = models::fit_ratings(base);
+  RunOptions opt;
+  opt.seed = 77;
+  opt.seasons = 20000;
+  const SimulationResult plain = simulate(compile_plan(base, ratings), opt);
+  for (const int team : {0, 7}) {
+    config::Season s = base;
+    config::TeamOverride o;
+    o.team = team;
+    o.runs_scored = ratings.league_mean * ratings.teams[static_cast<std::size_t>(team)].offence;
+    o.runs_allowed = ratings.league_mean * ratings.teams[static_cast<std::size_t>(team)].defence;
+    s.overrides.push_back(o);
+    const SimulationResult over = simulate(compile_plan(s, ratings), opt);
+    const auto& a = plain.teams[static_cast<std::size_t>(team)];
+    const auto& b = over.teams[static_cast<std::size_t>(team)];
+    auto near = [](const Probability& x, const Probability& y) {
+      return std::abs(x.p - y.p) <= 3 * std::hypot(x.se, y.se) + 1e-12;
+    };
+    INFO("team " << team << " postseason " << a.postseason.p << " -> " << b.postseason.p
+                 << ", division " << a.division.p << " -> " << b.division.p);
+    CHECK(near(a.postseason, b.postseason));
+    CHECK(near(a.division, b.division));
+    CHECK(near(a.bye, b.bye));
+    CHECK(near(a.title, b.title));
+    CHECK(std::abs(a.mean_wins - b.mean_wins) < 0.05);
+  }
+}
+
+TEST_CASE("a stated uncertainty of zero fixes the team's strength") {
+  // sd_runs: 0 removes the spread of the team's rate: its strength is the same every season,
+  // so its final wins spread less than with the fitted uncertainty (10th to 90th percentile;
+  // the game-to-game binomial spread alone remains). Invented demo league, fixed seed.
+  const config::Season base =
+      config::load_season(STANDFAST_SOURCE_DIR "/scenarios/demo/season.yaml");
+  const models::LeagueRatings ratings = models::fit_ratings(base);
+  config::Season s = base;
+  config::TeamOverride o;
+  o.team = 3;
+  o.runs_scored = ratings.league_mean * ratings.teams[3].offence;
+  o.runs_allowed = ratings.league_mean * ratings.teams[3].defence;
+  o.sd_runs = 0.0;
+  s.overrides.push_back(o);
+  RunOptions opt;
+  opt.seed = 78;
+  opt.seasons = 10000;
+  opt.postseason = false;
+  const auto spread = [](const TeamOdds& t) { return t.wins_p90 - t.wins_p10; };
+  const SimulationResult a = simulate(compile_plan(base, ratings), opt);
+  const SimulationResult b = simulate(compile_plan(s, ratings), opt);
+  INFO("spread " << spread(a.teams[3]) << " -> " << spread(b.teams[3]));
+  CHECK(spread(b.teams[3]) < spread(a.teams[3]));
 }

@@ -3,9 +3,12 @@
 // status 2, printed by main); warnings go to stderr as FILE:LINE:COLUMN: warning: message.
 #include <fmt/core.h>
 
+#include <algorithm>
+#include <limits>
 #include <memory>
 #include <nlohmann/json.hpp>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "config/load.h"
@@ -68,6 +71,49 @@ const char* family_name(config::ScoreFamily f) {
       return "log5 (win percentages only)";
   }
   return "?";
+}
+
+// Overrides per team in the order they apply, each with what it does to the team's strength
+// uncertainty (config::TeamOverride).
+std::string overrides_text(const Season& s) {
+  if (s.overrides.empty()) return "";
+  std::string out = fmt::format(
+      "Overrides: {} (per team in date order, each on top of the earlier ones). A stated rate\n"
+      "keeps the fitted strength's uncertainty (the same relative spread) unless sd_runs sets\n"
+      "another; added runs shift the team's rate and keep its uncertainty.\n",
+      s.overrides.size());
+  std::vector<const config::TeamOverride*> list;
+  for (const auto& o : s.overrides) list.push_back(&o);
+  constexpr auto START = std::numeric_limits<config::DayNumber>::min();
+  std::stable_sort(list.begin(), list.end(), [&](const auto* a, const auto* b) {
+    return std::pair(a->team, a->from.value_or(START)) <
+           std::pair(b->team, b->from.value_or(START));
+  });
+  for (const config::TeamOverride* o : list) {
+    std::vector<std::string> parts;
+    const std::string blend = o->blend < 1.0 ? fmt::format(" (blend {:g})", o->blend) : "";
+    if (o->runs_scored)
+      parts.push_back(fmt::format("runs scored {:g}/game{}", *o->runs_scored, blend));
+    if (o->runs_allowed)
+      parts.push_back(fmt::format("runs allowed {:g}/game{}", *o->runs_allowed, blend));
+    if (o->win_pct) parts.push_back(fmt::format("win pct {:g}{}", *o->win_pct, blend));
+    if (o->runs_scored || o->runs_allowed || o->win_pct) {
+      parts.push_back(!s.model.strength_uncertainty || s.model.family == config::ScoreFamily::kLog5
+                          ? "no uncertainty (strengths are not drawn)"
+                      : o->sd_runs ? fmt::format("uncertainty sd {:g} runs/game", *o->sd_runs)
+                                   : "fitted uncertainty kept");
+    }
+    if (o->add_runs_scored != 0)
+      parts.push_back(fmt::format("{:+g} runs scored/game", o->add_runs_scored));
+    if (o->add_runs_allowed != 0)
+      parts.push_back(fmt::format("{:+g} runs allowed/game", o->add_runs_allowed));
+    std::string what;
+    for (const auto& p : parts) what += (what.empty() ? "" : "; ") + p;
+    out += fmt::format("  {} {}: {}\n", s.teams[static_cast<std::size_t>(o->team)].id,
+                       o->from ? "from " + config::format_date(*o->from) : "all remaining games",
+                       what);
+  }
+  return out;
 }
 
 // Teams of every division at or below group `g`.
@@ -161,7 +207,7 @@ std::string summary_table(const Season& s, const Provenance& run) {
                                               m.lopsided->margin, m.lopsided->weight)
                                 : "",
                      m.strength_uncertainty ? "" : "; strengths fixed");
-  if (!s.overrides.empty()) out += fmt::format("Overrides: {}\n", s.overrides.size());
+  out += overrides_text(s);
   out += fmt::format(
       "OK{}\n", s.warnings.empty()
                     ? ""

@@ -72,16 +72,21 @@ std::string render_table(const config::Season& s, const FitReport& r, const Prov
       "\nTeam ratings. Offence: runs scored relative to the league (higher is better);\n"
       "defence: runs allowed relative to the league (lower is better). ± is the standard\n"
       "error of the log, about the relative error. Plain = own runs only; adjusted = for\n"
-      "opponents, venue and home edge, after shrinkage; free gamma = the team's own shape.\n";
-  out += fmt::format("{:<8} {:>4} {:>5} {:>5}  {:>14} {:>14}  {:>14} {:>14}  {:>13}\n", "team", "G",
-                     "RS/G", "RA/G", "plain off", "plain def", "adj off", "adj def", "free gamma");
+      "opponents, venue and home edge, after shrinkage; free gamma = the team's own shape.\n"
+      "Model RS, model RA: the adjusted ratings in runs per game (league mean x rating, at a\n"
+      "neutral venue against an average opponent), the units an override takes.\n";
+  out += fmt::format("{:<8} {:>4} {:>5} {:>5}  {:>14} {:>14}  {:>14} {:>14}  {:>8} {:>8}  {:>13}\n",
+                     "team", "G", "RS/G", "RA/G", "plain off", "plain def", "adj off", "adj def",
+                     "model RS", "model RA", "free gamma");
   for (size_t i = 0; i < r.teams.size(); ++i) {
     const auto& t = r.teams[i];
     out += fmt::format(
-        "{:<8} {:>4} {:>5.2f} {:>5.2f}  {:>14} {:>14}  {:>14} {:>14}  {:>13}\n", s.teams[i].id,
-        t.games, t.runs_scored, t.runs_allowed, with_se(t.plain_offence, t.plain_scored_se, 3),
+        "{:<8} {:>4} {:>5.2f} {:>5.2f}  {:>14} {:>14}  {:>14} {:>14}  {:>8.3f} {:>8.3f}  {:>13}\n",
+        s.teams[i].id, t.games, t.runs_scored, t.runs_allowed,
+        with_se(t.plain_offence, t.plain_scored_se, 3),
         with_se(t.plain_defence, t.plain_allowed_se, 3), with_se(t.offence, t.log_offence_se, 3),
-        with_se(t.defence, t.log_defence_se, 3),
+        with_se(t.defence, t.log_defence_se, 3), lr.league_mean * t.offence,
+        lr.league_mean * t.defence,
         t.free_shape > 0 ? with_se(t.free_shape, t.free_shape_se, 2) : "-");
   }
 
@@ -196,6 +201,8 @@ std::string render_csv(const config::Season& s, const FitReport& r, const Proven
     team("expected_pct", num(t.expected_pct));
     team("expected_wins", num(t.expected_wins));
     team("wins_minus_expected", num(t.wins_minus_expected));
+    team("model_runs_scored", num(lr.league_mean * t.offence));
+    team("model_runs_allowed", num(lr.league_mean * t.defence));
   }
   for (const auto& f : r.families) {
     const char* name = models::family_name(f.family);
@@ -267,7 +274,9 @@ std::string render_json(const config::Season& s, const FitReport& r, const Prove
                       {{"offence", number(t.offence)},
                        {"offence_log_se", number(t.log_offence_se)},
                        {"defence", number(t.defence)},
-                       {"defence_log_se", number(t.log_defence_se)}}},
+                       {"defence_log_se", number(t.log_defence_se)},
+                       {"runs_scored_per_game", number(lr.league_mean * t.offence)},
+                       {"runs_allowed_per_game", number(lr.league_mean * t.defence)}}},
                      {"chi_square",
                       {{"statistic", number(t.chi_square)},
                        {"df", t.df},

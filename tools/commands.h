@@ -22,6 +22,7 @@ void add_odds_command(CLI::App& app);       // the main job: simulated postseaso
 void add_backtest_command(CLI::App& app);   // calibration of the odds against outcomes
 // replay, movers and report: the odds history and the report page (tools/cmd_history.cpp)
 void add_history_commands(CLI::App& app);
+void add_whatif_command(CLI::App& app);  // scenarios against the season, paired
 
 }  // namespace standfast::tools
 

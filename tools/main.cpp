@@ -23,6 +23,7 @@ int main(int argc, char** argv) {
   tools::add_odds_command(app);
   tools::add_backtest_command(app);
   tools::add_history_commands(app);
+  tools::add_whatif_command(app);
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {

@@ -1,0 +1,138 @@
+// `standfast whatif SEASON_FILE SCENARIO_FILE`: runs every scenario of the scenario file
+// against the season on common random numbers and prints, per team, each chance under the
+// baseline and the scenario, the change, and its paired and unpaired standard errors.
+#include <fmt/core.h>
+
+#include <cstdint>
+#include <memory>
+#include <stdexcept>
+#include <string>
+#include <vector>
+
+#include "config/load.h"
+#include "config/scenario.h"
+#include "engine/compare.h"
+#include "engine/plan.h"
+#include "models/ratings.h"
+#include "tools/commands.h"
+#include "tools/output.h"
+#include "tools/progress.h"
+#include "tools/scenario_report.h"
+
+namespace standfast::tools {
+namespace {
+
+constexpr std::uint64_t DEFAULT_SEED = 20260101;
+constexpr std::uint64_t DEFAULT_SEASONS = 20000;
+constexpr std::uint64_t MAX_SEASONS = 100'000'000;
+
+struct WhatifOptions {
+  std::string season_file, scenario_file;
+  std::uint64_t seasons = DEFAULT_SEASONS;
+  std::uint64_t seed = DEFAULT_SEED;
+  int threads = 0;
+  std::string format = "table";
+  std::string output;
+};
+
+void run_whatif(const WhatifOptions& opt) {
+  const Format format = parse_format(opt.format);
+  if (opt.seasons < 1 || opt.seasons > MAX_SEASONS)
+    throw UsageError(fmt::format("--seasons: expected 1 to {}, got {}", MAX_SEASONS, opt.seasons));
+  if (opt.threads < 0)
+    throw UsageError(fmt::format("--threads: expected 0 (all cores) or more, got {}", opt.threads));
+
+  const config::Season season = config::load_season(opt.season_file);
+  for (const auto& w : season.warnings)
+    fmt::print(stderr, "warning: {}\n", config::format_diagnostic(w));
+  const config::ScenarioSet set = config::load_scenarios(opt.scenario_file, season);
+  if (set.scenarios.empty())
+    throw UsageError(fmt::format("{}: the file lists no scenario", opt.scenario_file));
+
+  engine::Plan baseline;
+  std::vector<std::unique_ptr<engine::Plan>> plans;
+  std::string where = opt.season_file;
+  try {
+    const models::LeagueRatings ratings = models::fit_ratings(season);
+    baseline = engine::compile_plan(season, ratings);
+    for (const config::Scenario& sc : set.scenarios) {
+      where = fmt::format("{}: scenario \"{}\"", opt.scenario_file, sc.name);
+      const config::Season changed = config::apply_scenario(season, sc);
+      engine::PlanEdits edits;
+      edits.removed = sc.removed;
+      for (const config::DecidedGame& d : sc.results)
+        edits.forced.emplace_back(d.game, d.home_wins);
+      if (!sc.added.empty()) edits.added_from = static_cast<int>(season.games.size());
+      // Another model is fitted again; otherwise the scenario keeps the season's fit, so that
+      // only what the scenario states differs.
+      const models::LeagueRatings own = sc.model ? models::fit_ratings(changed) : ratings;
+      plans.push_back(std::make_unique<engine::Plan>(engine::compile_plan(changed, own, edits)));
+    }
+  } catch (const std::domain_error& e) {
+    throw UsageError(fmt::format("{}: cannot fit the ratings: {}", where, e.what()));
+  } catch (const std::invalid_argument& e) {
+    throw UsageError(fmt::format("{}: cannot build the simulation: {}", where, e.what()));
+  }
+
+  std::vector<const engine::Plan*> alts;
+  for (const auto& p : plans) alts.push_back(p.get());
+  ProgressBar bar;
+  engine::RunOptions run;
+  run.seed = opt.seed;
+  run.seasons = opt.seasons;
+  run.threads = opt.threads;
+  run.progress = [&bar](std::uint64_t done, std::uint64_t total) { bar.update(done, total); };
+  ScenarioReport report;
+  report.comparison = engine::compare_plans(baseline, alts, run);
+  bar.finish();
+
+  report.league = season.league.name;
+  report.season_label = season.league.season_label;
+  report.season_file = opt.season_file;
+  report.scenario_file = opt.scenario_file;
+  report.seed = opt.seed;
+  report.seasons = report.comparison.baseline.seasons;
+  for (const auto& t : season.teams) report.team_ids.push_back(t.id);
+  report.baseline_model = model_used(baseline);
+  for (std::size_t k = 0; k < set.scenarios.size(); ++k) {
+    report.names.push_back(set.scenarios[k].name);
+    report.models.push_back(model_used(*plans[k]));
+  }
+  std::string text;
+  switch (format) {
+    case Format::kTable:
+      text = write_scenario_table(report);
+      break;
+    case Format::kCsv:
+      text = write_scenario_csv(report);
+      break;
+    case Format::kJson:
+      text = write_scenario_json(report);
+      break;
+  }
+  write_output(opt.output, text);
+}
+
+}  // namespace
+
+void add_whatif_command(CLI::App& app) {
+  auto opt = std::make_shared<WhatifOptions>();
+  auto* cmd = app.add_subcommand(
+      "whatif",
+      "Run the scenarios of a scenario file against the season on common random numbers and "
+      "print each team's change in chances with its paired standard error.");
+  cmd->add_option("season", opt->season_file, "Season file (YAML)")->required();
+  cmd->add_option("scenarios", opt->scenario_file, "Scenario file (YAML)")->required();
+  cmd->add_option("--seasons", opt->seasons,
+                  fmt::format("Simulated seasons, the same for the baseline and every scenario "
+                              "(default {})",
+                              DEFAULT_SEASONS));
+  cmd->add_option("--seed", opt->seed, fmt::format("Random seed (default {})", DEFAULT_SEED));
+  cmd->add_option("--threads", opt->threads, "Worker threads (default 0 = all cores)");
+  cmd->add_option("--format", opt->format, "Output format: table, csv or json (default table)");
+  cmd->add_option("-o,--output", opt->output,
+                  "Write to this file (whole or not at all) instead of standard output");
+  cmd->callback([opt] { run_whatif(*opt); });
+}
+
+}  // namespace standfast::tools
