@@ -286,6 +286,7 @@ void add_fit_command(CLI::App& app) {
     }
     const config::Season full = config::load_season(opt->file);
     const config::Season season = config::season_as_of(full, resolve_as_of(full, opt->as_of));
+    check_output_target(opt->output, full.input_files);
     models::FitReport report;
     try {
       report = models::fit_report(season, opt->alpha);

@@ -60,6 +60,7 @@ void run_odds(const OddsOptions& opt) {
   // seasons, and rank 0 alone prints warnings, progress and the report.
   const bool lead = process_rank() == 0;
   const config::Season season = config::load_season(opt.season_file);
+  check_output_target(opt.output, season.input_files);
   if (lead) {
     for (const auto& w : season.warnings)
       fmt::print(stderr, "warning: {}\n", config::format_diagnostic(w));

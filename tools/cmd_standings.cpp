@@ -243,6 +243,7 @@ void add_standings_command(CLI::App& app) {
   cmd->callback([opt] {
     const Format format = parse_format(opt->format);
     const Season season = config::load_season(opt->file);
+    check_output_target(opt->output, season.input_files);
     for (const config::Diagnostic& w : season.warnings) {
       config::Diagnostic d = w;
       d.message = "warning: " + d.message;
