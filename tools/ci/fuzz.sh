@@ -24,7 +24,7 @@ flags="-fsanitize=address,undefined,fuzzer-no-link -fno-sanitize-recover=undefin
 cmake -S . -B build-fuzz -DCMAKE_CXX_COMPILER=clang++-14 -DCMAKE_BUILD_TYPE=RelWithDebInfo \
   -DBUILD_TESTING=OFF -DSTANDFAST_FUZZ=ON -DCMAKE_CXX_FLAGS="$flags" \
   -DCMAKE_EXE_LINKER_FLAGS="-fsanitize=address,undefined" >/dev/null
-cmake --build build-fuzz -j "$(nproc)" --target season_fuzz games_csv_fuzz >&2
+cmake --build build-fuzz -j "${FUZZ_JOBS:-$(nproc)}" --target season_fuzz games_csv_fuzz >&2
 
 mkdir -p build-fuzz/artifacts
 for target in season games_csv; do
