@@ -9,15 +9,17 @@ namespace standfast::config::detail {
 
 namespace {
 
+const std::string RUNS_RANGE = "a whole number from 0 to " + std::to_string(MAX_GAME_RUNS);
+
 // Reads a whole number >= `min` from a field; reports and returns nullopt otherwise.
 std::optional<int> field_int(const GameFields& g, const GameField& f, const char* name, int min,
-                             const char* range, Report& report) {
+                             const std::string& range, Report& report, int max = 1000000) {
   const auto v = parse_integer(f.text);
   if (!v) {
     report.error(f.pos, g.where + name + ": " + not_integer_message(f.text));
     return std::nullopt;
   }
-  if (*v < min || *v > 1000000) {
+  if (*v < min || *v > max) {
     report.error(f.pos, g.where + name + ": must be " + range + ", got " + std::to_string(*v));
     return std::nullopt;
   }
@@ -46,7 +48,7 @@ std::string head(const GameFields& g) {
 }  // namespace
 
 void add_game(const GameFields& g, const TeamIds& teams, Season& season, Report& report) {
-  const std::size_t errors_before = report.errors().size();
+  const std::size_t errors_before = report.error_count();
   Game game;
   game.pos = g.pos;
 
@@ -90,10 +92,10 @@ void add_game(const GameFields& g, const TeamIds& teams, Season& season, Report&
   std::optional<int> home_runs;
   std::optional<int> away_runs;
   if (g.home_runs.given) {
-    home_runs = field_int(g, g.home_runs, "home_runs", 0, "a non-negative whole number", report);
+    home_runs = field_int(g, g.home_runs, "home_runs", 0, RUNS_RANGE, report, MAX_GAME_RUNS);
   }
   if (g.away_runs.given) {
-    away_runs = field_int(g, g.away_runs, "away_runs", 0, "a non-negative whole number", report);
+    away_runs = field_int(g, g.away_runs, "away_runs", 0, RUNS_RANGE, report, MAX_GAME_RUNS);
   }
   const bool played = g.home_runs.given || g.away_runs.given;
   if (g.home_runs.given != g.away_runs.given) {
@@ -137,7 +139,7 @@ void add_game(const GameFields& g, const TeamIds& teams, Season& season, Report&
     }
   }
 
-  if (report.errors().size() != errors_before) return;
+  if (report.error_count() != errors_before) return;
   game.played = played;
   game.home_runs = home_runs.value_or(0);
   game.away_runs = away_runs.value_or(0);

@@ -1,14 +1,10 @@
 #include "config/load.h"
 
 #include <algorithm>
-#include <cerrno>
-#include <cstring>
-#include <fstream>
-#include <sstream>
-#include <system_error>
 
 #include "config/games.h"
 #include "config/games_csv.h"
+#include "config/input_file.h"
 #include "config/report.h"
 #include "config/yaml_reader.h"
 
@@ -23,27 +19,6 @@ std::string join(const std::vector<Diagnostic>& problems) {
     out += format_diagnostic(d);
   }
   return out;
-}
-
-// Reads a whole file; nullopt with a reason when it cannot.
-std::optional<std::string> read_file(const std::filesystem::path& path, std::string& why) {
-  std::error_code ec;
-  if (std::filesystem::is_directory(path, ec)) {
-    why = "is a directory, not a file";
-    return std::nullopt;
-  }
-  std::ifstream in(path, std::ios::binary);
-  if (!in) {
-    why = std::strerror(errno);
-    return std::nullopt;
-  }
-  std::ostringstream buf;
-  buf << in.rdbuf();
-  if (in.bad()) {
-    why = "read error";
-    return std::nullopt;
-  }
-  return std::move(buf).str();
 }
 
 void warn_games_per_team(const Season& season, const SourcePos& pos, detail::Report& report) {
@@ -98,7 +73,7 @@ std::string format_diagnostic(const Diagnostic& d) {
 
 Season load_season(const std::filesystem::path& file) {
   std::string why;
-  const auto text = read_file(file, why);
+  const auto text = read_input_file(file.string(), why);
   if (!text) {
     throw ConfigError(
         {Diagnostic{SourcePos{file.string(), 0, 0}, "cannot read the season file: " + why}});
@@ -109,16 +84,22 @@ Season load_season(const std::filesystem::path& file) {
 Season load_season_text(const std::string& yaml_text, const std::filesystem::path& file) {
   Season season;
   season.file = file.string();
+  season.input_files.push_back(season.file);
+  // Bytes that are not text stop the reading at once: the YAML parser would misreport them.
+  if (auto bad = check_text(yaml_text, season.file)) throw ConfigError({std::move(*bad)});
   detail::Report report;
   detail::YamlResult yaml = detail::read_season_yaml(yaml_text, season, report);
 
   if (yaml.games_file) {
     const std::filesystem::path csv_path = file.parent_path() / *yaml.games_file;
+    season.input_files.push_back(csv_path.string());
     std::string why;
-    const auto csv = read_file(csv_path, why);
+    const auto csv = read_input_file(csv_path.string(), why);
     if (!csv) {
       report.error(yaml.games_file_pos, "games_file: cannot read " +
                                             detail::quoted(csv_path.string(), 4096) + ": " + why);
+    } else if (auto bad = check_text(*csv, csv_path.string())) {
+      report.error(bad->pos, bad->message);
     } else {
       season.games_file = csv_path.string();
       detail::read_games_csv(*csv, csv_path.string(), yaml.teams, season, report);
@@ -126,8 +107,16 @@ Season load_season_text(const std::string& yaml_text, const std::filesystem::pat
   }
   detail::check_duplicate_games(season, yaml.teams, report);
   if (report.has_errors()) {
-    sort_by_position(report.errors(), season.file);
-    throw ConfigError(std::move(report.errors()));
+    std::vector<Diagnostic> errors = std::move(report.errors());
+    sort_by_position(errors, season.file);
+    const std::size_t total = report.error_count();
+    if (total > MAX_PROBLEMS_SHOWN) {
+      errors.resize(MAX_PROBLEMS_SHOWN);
+      errors.push_back(Diagnostic{SourcePos{season.file, 0, 0},
+                                  std::to_string(total - MAX_PROBLEMS_SHOWN) +
+                                      " more problems not shown (fix the ones above first)"});
+    }
+    throw ConfigError(std::move(errors));
   }
   warn_games_per_team(season, yaml.games_per_team_pos, report);
   season.warnings = std::move(report.warnings());

@@ -22,10 +22,14 @@ class ConfigError : public std::runtime_error {
   std::vector<Diagnostic> problems_;
 };
 
+// The most problems a ConfigError lists; it then says how many more there were.
+inline constexpr std::size_t MAX_PROBLEMS_SHOWN = 100;
+
 // "FILE:LINE:COLUMN: message" (LINE and COLUMN left out when unknown).
 std::string format_diagnostic(const Diagnostic& d);
 
-// Reads and validates a season file. Throws ConfigError listing every problem found; warnings
+// Reads and validates a season file (a regular file of at most MAX_INPUT_BYTES, UTF-8 text, one
+// YAML document; config/input_file.h). Throws ConfigError listing every problem found; warnings
 // (for example games per team disagreeing with the schedule) are returned in Season::warnings.
 Season load_season(const std::filesystem::path& file);
 

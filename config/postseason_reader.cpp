@@ -123,7 +123,7 @@ void read_postseason(YamlContext& ctx, const YAML::Node& node, Season& season) {
   Postseason& ps = season.postseason;
   ps.enabled = true;
   ps.pos = ctx.pos(node);
-  const std::size_t errors_before = ctx.report().errors().size();
+  const std::size_t errors_before = ctx.report().error_count();
   MapView m(ctx, node, "postseason", {"format", "qualify", "per_conference", "reseed", "rounds"});
   if (!m.ok()) return;
   SourcePos format_pos = ps.pos;
@@ -221,7 +221,7 @@ void read_postseason(YamlContext& ctx, const YAML::Node& node, Season& season) {
   }
 
   // The bracket: does it reduce the field to one team, in as many rounds as are listed?
-  if (ctx.report().errors().size() != errors_before || season.conferences.empty()) return;
+  if (ctx.report().error_count() != errors_before || season.conferences.empty()) return;
   const SourcePos rounds_pos = rounds_node ? ctx.pos(*rounds_node) : ps.pos;
   int needed = 0;
   std::string why;

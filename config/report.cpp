@@ -7,11 +7,13 @@
 namespace standfast::config::detail {
 
 void Report::error(SourcePos pos, std::string message) {
-  errors_.push_back(Diagnostic{std::move(pos), std::move(message)});
+  if (++error_count_ <= MAX_KEPT) errors_.push_back(Diagnostic{std::move(pos), std::move(message)});
 }
 
 void Report::warning(SourcePos pos, std::string message) {
-  warnings_.push_back(Diagnostic{std::move(pos), std::move(message)});
+  if (++warning_count_ <= MAX_KEPT) {
+    warnings_.push_back(Diagnostic{std::move(pos), std::move(message)});
+  }
 }
 
 std::string quoted(std::string_view text, std::size_t max_shown) {

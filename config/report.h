@@ -12,17 +12,26 @@
 
 namespace standfast::config::detail {
 
+// Keeps the first MAX_KEPT errors and warnings and counts the rest, so that a file of a
+// million bad lines costs bounded memory.
 class Report {
  public:
+  static constexpr std::size_t MAX_KEPT = 1000;
+
   void error(SourcePos pos, std::string message);
   void warning(SourcePos pos, std::string message);
-  bool has_errors() const { return !errors_.empty(); }
+  bool has_errors() const { return error_count_ > 0; }
+  // Every error reported, kept or not: compare two counts to learn whether a step added one.
+  std::size_t error_count() const { return error_count_; }
+  std::size_t warning_count() const { return warning_count_; }
   std::vector<Diagnostic>& errors() { return errors_; }
   std::vector<Diagnostic>& warnings() { return warnings_; }
 
  private:
   std::vector<Diagnostic> errors_;
   std::vector<Diagnostic> warnings_;
+  std::size_t error_count_ = 0;
+  std::size_t warning_count_ = 0;
 };
 
 // User text for a message: in single quotes, control and non-ASCII bytes escaped as \xNN, cut

@@ -166,6 +166,17 @@ struct Game {
   SourcePos pos;
 };
 
+// The ranges a season file may state: ones the fit and the engine honour in bounded time
+// (far outside them a venue or an override can make games tie for ever, and a gamma function
+// overflow). Real values sit well inside: run factors 0.8 to 1.3, shapes 1.5 to 2.2 (Weibull;
+// larger for the negative binomial), home edges 1.0 to 1.1, 2 to 8 runs a game, and final
+// scores below 40 (common practice).
+inline constexpr double MIN_RUN_FACTOR = 0.2, MAX_RUN_FACTOR = 5.0;
+inline constexpr double MIN_SHAPE = 0.5, MAX_SHAPE = 20.0;
+inline constexpr double MIN_HOME_EDGE = 0.5, MAX_HOME_EDGE = 2.0;
+inline constexpr double MIN_OVERRIDE_RUNS = 0.5, MAX_OVERRIDE_RUNS = 30.0;
+inline constexpr int MAX_GAME_RUNS = 99;
+
 struct Diagnostic {
   SourcePos pos;
   std::string message;
@@ -174,6 +185,7 @@ struct Diagnostic {
 struct Season {
   std::string file;        // the season file as given
   std::string games_file;  // the games CSV named by `games_file` (its path as read), or empty
+  std::vector<std::string> input_files;  // every file read: the season file, then its games file
   League league;
   std::vector<Team> teams;
   std::vector<Group> groups;

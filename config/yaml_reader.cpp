@@ -1,7 +1,11 @@
 #include "config/yaml_reader.h"
 
+#include <yaml-cpp/depthguard.h>
+
 #include <cmath>
 #include <functional>
+#include <set>
+#include <string_view>
 
 #include "config/postseason_reader.h"
 #include "config/suggest.h"
@@ -94,7 +98,8 @@ void read_teams(YamlContext& ctx, const YAML::Node& node, Season& season, TeamId
     team.venue = team.name;
     if (auto n = m.get("venue")) team.venue = ctx.text(*n, m.sub("venue")).value_or(team.name);
     if (auto n = m.get("run_factor")) {
-      team.run_factor = ctx.real_in(*n, m.sub("run_factor"), 0.0, false, 10.0).value_or(1.0);
+      team.run_factor =
+          ctx.real_in(*n, m.sub("run_factor"), MIN_RUN_FACTOR, true, MAX_RUN_FACTOR).value_or(1.0);
     }
     if (!ok) continue;
     ids.index.emplace(team.id, static_cast<int>(season.teams.size()));
@@ -272,12 +277,12 @@ void read_tiebreakers(YamlContext& ctx, const YAML::Node& node, Tiebreakers& tb)
   if (order->size() == 0) ctx.error(*order, m.sub("order") + ": is empty");
 }
 
-// `fit` or a number in (0, hi].
+// `fit` or a number in [lo, hi].
 std::optional<double> fit_or_number(YamlContext& ctx, const YAML::Node& n, const std::string& path,
-                                    double hi, bool& bad) {
+                                    double lo, double hi, bool& bad) {
   if (n.IsScalar() && n.Scalar() == "fit") return std::nullopt;
   const auto v =
-      n.IsScalar() && parse_real(n.Scalar()) ? ctx.real_in(n, path, 0.0, false, hi) : std::nullopt;
+      n.IsScalar() && parse_real(n.Scalar()) ? ctx.real_in(n, path, lo, true, hi) : std::nullopt;
   if (!v && !(n.IsScalar() && parse_real(n.Scalar()))) {
     ctx.error(n, path + ": must be `fit` or a number, got " + describe(n));
   }
@@ -312,9 +317,10 @@ SourcePos read_model(YamlContext& ctx, const YAML::Node& node, ModelSpec& model,
     }
   }
   bool bad = false;
-  if (auto n = m.get("shape")) model.shape = fit_or_number(ctx, *n, m.sub("shape"), 20.0, bad);
+  if (auto n = m.get("shape"))
+    model.shape = fit_or_number(ctx, *n, m.sub("shape"), MIN_SHAPE, MAX_SHAPE, bad);
   if (auto n = m.get("home_edge")) {
-    model.home_edge = fit_or_number(ctx, *n, m.sub("home_edge"), 10.0, bad);
+    model.home_edge = fit_or_number(ctx, *n, m.sub("home_edge"), MIN_HOME_EDGE, MAX_HOME_EDGE, bad);
   }
   if (auto n = m.get("shrink_games")) {
     model.shrink_games = ctx.real_in(*n, m.sub("shrink_games"), 0.0, true, 1e6).value_or(20.0);
@@ -367,21 +373,22 @@ void read_overrides(YamlContext& ctx, const YAML::Node& node, const std::string&
       }
     }
     ok = o.team >= 0;
-    const auto number = [&](const char* key, std::optional<double>& into, double lo, double hi) {
+    const auto number = [&](const char* key, std::optional<double>& into, double lo, bool closed,
+                            double hi) {
       if (auto n = m.get(key)) {
-        into = ctx.real_in(*n, m.sub(key), lo, false, hi);
+        into = ctx.real_in(*n, m.sub(key), lo, closed, hi);
         ok = ok && into.has_value();
       }
     };
-    number("runs_scored", o.runs_scored, 0.0, 100.0);
-    number("runs_allowed", o.runs_allowed, 0.0, 100.0);
-    number("win_pct", o.win_pct, 0.0, 1.0);
+    number("runs_scored", o.runs_scored, MIN_OVERRIDE_RUNS, true, MAX_OVERRIDE_RUNS);
+    number("runs_allowed", o.runs_allowed, MIN_OVERRIDE_RUNS, true, MAX_OVERRIDE_RUNS);
+    number("win_pct", o.win_pct, 0.0, false, 1.0);
     if (auto n = m.get("win_pct"); n && o.win_pct && *o.win_pct >= 1.0) {
       ctx.error(*n, m.sub("win_pct") + ": must be below 1, got 1");
       ok = false;
     }
     std::optional<double> blend;
-    number("blend", blend, 0.0, 1.0);
+    number("blend", blend, 0.0, false, 1.0);
     o.blend = blend.value_or(1.0);
     std::optional<double> add_scored, add_allowed;
     number("add_runs_scored", add_scored, -100.0, 100.0);
@@ -528,6 +535,131 @@ void read_all(YamlContext& ctx, const YAML::Node& root, Season& season, YamlResu
   }
 }
 
+const char* const UNCLOSED_QUOTE =
+    "the quoted value opened here is not closed on its line: add the closing quote (a quoted "
+    "value must end on the line where it starts)";
+
+// Offset of a node's first character in `text`, from its 0-based line and column (yaml-cpp's
+// own stream offset skips a byte-order mark). npos when out of range.
+std::size_t offset_of(std::string_view text, const YAML::Mark& mark) {
+  std::size_t at = 0;
+  for (int line = 0; line < mark.line; ++line) {
+    at = text.find('\n', at);
+    if (at == std::string_view::npos) return at;
+    ++at;
+  }
+  if (mark.line == 0 && text.substr(0, 3) == "\xEF\xBB\xBF") at = 3;
+  at += static_cast<std::size_t>(mark.column);
+  return at < text.size() ? at : std::string_view::npos;
+}
+
+// YAML lets a quoted value run over several lines, so a quote left open swallows the keys that
+// follow it (up to the next quote or the end of the file) and the file still parses. A season
+// file never needs that: every quoted value must close on the line where it opens.
+struct QuoteChecker {
+  std::string_view text;
+  YamlContext& ctx;
+  std::set<int> seen;  // positions of the lists and maps visited (an alias revisits one)
+
+  void scalar(const YAML::Node& n) {
+    if (n.Tag() != "!") return;  // plain scalars carry the tag "?"
+    const std::size_t at = offset_of(text, n.Mark());
+    if (at == std::string_view::npos) return;
+    const char quote = text[at];
+    if (quote != '"' && quote != '\'') return;
+    for (std::size_t i = at + 1; i < text.size(); ++i) {
+      const char c = text[i];
+      if (c == '\n' || c == '\r') break;
+      if (quote == '"' && c == '\\') {
+        ++i;
+      } else if (c == quote) {
+        if (quote == '\'' && i + 1 < text.size() && text[i + 1] == '\'') {
+          ++i;
+        } else {
+          return;
+        }
+      }
+    }
+    ctx.error(n, UNCLOSED_QUOTE);
+  }
+
+  void walk(const YAML::Node& n) {
+    if (n.IsScalar()) {
+      scalar(n);
+      return;
+    }
+    if (!n.IsMap() && !n.IsSequence()) return;
+    if (!seen.insert(n.Mark().pos).second) return;
+    if (n.IsMap()) {
+      for (const auto& kv : n) {
+        walk(kv.first);
+        walk(kv.second);
+      }
+    } else {
+      for (const auto& item : n) walk(item);
+    }
+  }
+};
+
+// After a syntax error: the first quote that opens a value and does not close on its line, at or
+// before the error's line (0-based). A quote opens a value where YAML allows one: at the start
+// of a line or after a space, `:`, `,`, `[`, `{` or `-`; an apostrophe inside a word does not.
+// Comments (` #`) end the scan of a line.
+std::optional<SourcePos> unclosed_quote(std::string_view text, int last_line,
+                                        const std::string& file) {
+  int line = 0;
+  for (std::size_t start = 0; start <= text.size() && line <= last_line; ++line) {
+    std::size_t end = text.find('\n', start);
+    if (end == std::string_view::npos) end = text.size();
+    const std::string_view l = text.substr(start, end - start);
+    char before = ' ';
+    for (std::size_t i = 0; i < l.size(); ++i) {
+      const char c = l[i];
+      if (c == '#' && (before == ' ' || before == '\t')) break;
+      if ((c == '"' || c == '\'') &&
+          std::string_view(" \t:,[{-").find(before) != std::string_view::npos) {
+        std::size_t j = i + 1;
+        for (; j < l.size(); ++j) {
+          if (c == '"' && l[j] == '\\') {
+            ++j;
+          } else if (l[j] == c) {
+            if (c == '\'' && j + 1 < l.size() && l[j + 1] == '\'') {
+              ++j;
+            } else {
+              break;
+            }
+          }
+        }
+        if (j >= l.size()) return SourcePos{file, line + 1, static_cast<int>(i) + 1};
+        i = j;
+        before = c;
+        continue;
+      }
+      before = c;
+    }
+    start = end + 1;
+  }
+  return std::nullopt;
+}
+
+// The line where the second document of a stream starts (its `---`), or the root's own line.
+SourcePos second_document_pos(std::string_view text, const YAML::Node& root,
+                              const std::string& file) {
+  const YAML::Mark m = root.Mark();
+  std::size_t at = m.is_null() ? text.size() : offset_of(text, m);
+  if (at == std::string_view::npos) at = text.size();
+  std::size_t start = text.rfind("\n---", at);
+  start = start == std::string_view::npos ? 0 : start + 1;
+  int line = 1;
+  for (std::size_t i = 0; i < start; ++i) line += text[i] == '\n';
+  return SourcePos{file, line, 1};
+}
+
+SourcePos mark_pos(const std::string& file, const YAML::Mark& mark) {
+  if (mark.is_null()) return SourcePos{file, 0, 0};
+  return SourcePos{file, mark.line + 1, mark.column + 1};
+}
+
 }  // namespace
 
 YamlResult read_season_yaml(const std::string& text, Season& season, Report& report) {
@@ -535,20 +667,34 @@ YamlResult read_season_yaml(const std::string& text, Season& season, Report& rep
   YamlContext ctx(season.file, report);
   YAML::Node root;
   try {
-    root = YAML::Load(text);
+    std::vector<YAML::Node> documents = YAML::LoadAll(text);
+    if (documents.size() > 1) {
+      report.error(second_document_pos(text, documents[1], season.file),
+                   "a second YAML document starts here: a season file holds one document "
+                   "(remove this `---` and what follows, or merge it into the first)");
+      return out;
+    }
+    if (!documents.empty()) root = documents.front();
+  } catch (const YAML::DeepRecursion& e) {
+    report.error(mark_pos(season.file, e.mark),
+                 "lists and maps nested too deeply for the YAML reader (hundreds of levels): a "
+                 "season file needs only a few");
+    return out;
   } catch (const YAML::Exception& e) {
-    SourcePos pos{season.file, 0, 0};
-    if (!e.mark.is_null()) pos = SourcePos{season.file, e.mark.line + 1, e.mark.column + 1};
-    report.error(pos, "YAML syntax error: " + e.msg);
+    report.error(mark_pos(season.file, e.mark), "YAML syntax error: " + e.msg);
+    // An open quote swallows what follows and the parser stumbles far below it: say where.
+    const int last = e.mark.is_null() ? 1 << 30 : e.mark.line;
+    if (auto q = unclosed_quote(text, last, season.file)) report.error(*q, UNCLOSED_QUOTE);
     return out;
   }
+  const std::size_t errors_before = report.error_count();
+  QuoteChecker{text, ctx, {}}.walk(root);
+  if (report.error_count() != errors_before) return out;  // the keys after it are not to be trusted
   try {
     read_all(ctx, root, season, out);
   } catch (const YAML::Exception& e) {
     // Not expected: the readers check node types before use. Reported rather than crashing.
-    SourcePos pos{season.file, 0, 0};
-    if (!e.mark.is_null()) pos = SourcePos{season.file, e.mark.line + 1, e.mark.column + 1};
-    report.error(pos, "cannot read this part of the file: " + e.msg);
+    report.error(mark_pos(season.file, e.mark), "cannot read this part of the file: " + e.msg);
   }
   return out;
 }

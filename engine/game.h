@@ -14,6 +14,12 @@
 // The visitors bat first; the home side bats in the bottom half and stops as soon as it leads
 // (a walk-off counts only the runs up to the winning run). A game still tied after the innings
 // cap (ExtraInningsRule::max_innings) is settled by a fair draw and counted as drawn.
+// Bounded time for any input: a side's chance of scoring in a half-inning is at least
+// S_MIN = 0.05 (it binds only below about 0.8 expected runs a game, far under any real side), and
+// a game still tied after MAX_EXTRA_INNINGS = 100 extra innings is settled by the same draw,
+// also in the postseason and with no league cap. At real scoring rates (s near 0.28) a tie
+// lasts 100 innings with a chance below 1e-25; the longest professional games went a little
+// over 30 innings (from memory).
 //
 // Log5 family: no scores; the home side wins with probability odds_h H / (odds_h H + odds_a)
 // (Bradley-Terry / log5, REFERENCE_VALUES section 5).
@@ -51,14 +57,16 @@ class ExtraInnings {
   static constexpr double RUN_CONTINUATION = 0.43;
   static constexpr double RUNNER_FACTOR = 2.2;
   static constexpr double S_MAX = 0.95;
+  static constexpr double S_MIN = 0.05;
+  static constexpr int MAX_EXTRA_INNINGS = 100;
 
   ExtraInnings() = default;
   ExtraInnings(int regulation_innings, const config::ExtraInningsRule& rule);
 
   // Chance that a side with `mean` expected runs per game scores in an extra half-inning.
   double scoring_chance(double mean) const {
-    double s = mean * per_inning_;
-    return s < S_MAX ? s : S_MAX;
+    const double s = mean * per_inning_;
+    return s < S_MAX ? (s > S_MIN ? s : S_MIN) : S_MAX;
   }
 
   // Runs of one half-inning from one 32-bit uniform u (0 when not scoring), at most `stop` (the
@@ -111,7 +119,8 @@ class ExtraInnings {
   // Extra innings of n tied games together. Each pass plays the next inning of every game still
   // tied, one draw per game in game order (inning()), and keeps the still-tied ones, without a
   // branch per game. With cap_innings, the games still tied after the league's innings cap are
-  // settled by a fair draw (one draw each, in order). sides(i) gives game i's scoring chances
+  // settled by a fair draw (one draw each, in order); so are, always, the games still tied after
+  // MAX_EXTRA_INNINGS extra innings. sides(i) gives game i's scoring chances
   // (a const Sides&); `open` is scratch space for n indexes; out[i] receives game i's extra runs
   // and winner. Returns the number of games settled by the draw.
   struct Outcome {
@@ -137,8 +146,10 @@ class ExtraInnings {
       out[i] = Outcome{};
     }
     std::size_t still_open = n;
+    const int last =
+        cap_innings && max_innings_ > 0 ? max_innings_ : regulation_ + MAX_EXTRA_INNINGS;
     for (int number = regulation_ + 1; still_open > 0; ++number) {
-      if (cap_innings && max_innings_ > 0 && number > max_innings_) {
+      if (number > last) {
         for (std::size_t k = 0; k < still_open; ++k)
           out[open[k]].home_won = (bits(open[k], 0) >> 63) != 0;
         return still_open;

@@ -74,7 +74,7 @@ TEST_CASE("every game problem of a CSV is reported with its line and field") {
             f +
             "4:5: only one score given (home_runs 3, away_runs missing): a played game needs both, "
             "a game not played neither\n" +
-            f + "5:5: home_runs: must be a non-negative whole number, got -2\n" + f +
+            f + "5:5: home_runs: must be a whole number from 0 to 99, got -2\n" + f +
             "6:5: home_runs: must be a whole number, got 1.5\n" + f +
             "7:7: innings: 6 is fewer than the 9 of regulation; mark the game shortened if the "
             "officials ended it early\n" +

@@ -257,7 +257,7 @@ TEST_CASE("a game with only one score is refused") {
 TEST_CASE("negative and fractional scores are refused") {
   CHECK(errors_of(games(
             "  - {date: 2031-04-02, home: AAA, away: CCC, home_runs: -1, away_runs: 2.5}\n")) ==
-        "t.yaml:15:57: games[0].home_runs: must be a non-negative whole number, got -1\n"
+        "t.yaml:15:57: games[0].home_runs: must be a whole number from 0 to 99, got -1\n"
         "t.yaml:15:72: games[0].away_runs: must be a whole number, got 2.5");
 }
 

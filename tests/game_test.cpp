@@ -171,3 +171,31 @@ TEST_CASE("log5 games: the home side wins with the log5 probability") {
   for (int i = 0; i < n; ++i) wins += engine.play(rng, sides).home_won;
   check_share(wins / double(n), p, n);
 }
+
+TEST_CASE("extra innings end in bounded time even when neither side can score") {
+  // A side that cannot score (mean 1e-300, as a venue factor of 1e-300 once gave) still gets
+  // the floor S_MIN; with both chances forced to 0 every game stays tied and must be settled
+  // by the draw after MAX_EXTRA_INNINGS, with no league cap and in the postseason alike.
+  // Ref: the bound is our stated rule (engine/game.h); the zero-chance case follows from it.
+  const ExtraInnings rule(9, config::ExtraInningsRule{false, 0});
+  CHECK(rule.scoring_chance(1e-300) == ExtraInnings::S_MIN);
+  CHECK(rule.scoring_chance(0.0) == ExtraInnings::S_MIN);
+  Sides dead;
+  dead.home_chance = 0.0;
+  dead.away_chance = 0.0;
+  constexpr std::size_t N = 64;
+  std::uint32_t open[N];
+  ExtraInnings::Outcome out[N];
+  for (const bool cap : {true, false}) {
+    Rng rng = make_stream(12, cap, Purpose::kGames);
+    const std::size_t drawn = rule.play_all(
+        rng, N, [&](std::size_t) -> const Sides& { return dead; }, open, out, cap);
+    CHECK(drawn == N);
+    for (const auto& o : out) CHECK(o.home_runs + o.away_runs == 0);
+  }
+  // A league cap above the hard bound is honoured as it is.
+  const ExtraInnings long_cap(9, config::ExtraInningsRule{false, 300});
+  Rng rng = make_stream(13, 0, Purpose::kGames);
+  CHECK(long_cap.play_all(
+            rng, N, [&](std::size_t) -> const Sides& { return dead; }, open, out, true) == N);
+}

@@ -331,6 +331,7 @@ void add_fit_command(CLI::App& app) {
     const config::Season full = load_season_file(opt->file);
     const config::DayNumber as_of = resolve_as_of(full, opt->as_of);
     const config::Season season = config::season_as_of(full, as_of);
+    check_output_target(opt->report.output, full.input_files);
     models::FitReport report;
     try {
       report = models::fit_report(season, opt->alpha);

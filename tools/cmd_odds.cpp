@@ -55,6 +55,7 @@ void run_odds(const OddsOptions& opt) {
   // seasons, and rank 0 alone prints warnings, progress and the report.
   const bool lead = process_rank() == 0;
   const config::Season season = config::load_season(opt.season_file);
+  check_output_target(opt.report.output, season.input_files);
   if (lead) print_warnings(season);
   if (!opt.group.empty() &&
       std::none_of(season.groups.begin(), season.groups.end(),

@@ -252,6 +252,7 @@ void add_standings_command(CLI::App& app) {
     const Format format = check_report_options(opt->report);
     const Season season = load_season_file(opt->file);
     const Provenance run = make_provenance(season);
+    check_output_target(opt->report.output, season.input_files);
     const Standings st = engine::compute_standings(season);
     const Certainties cert = engine::exact_certainty(season, engine::clinch_records(season));
     std::string text;

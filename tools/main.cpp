@@ -2,7 +2,11 @@
 #include <fmt/core.h>
 
 #include <CLI/CLI.hpp>
+#include <cerrno>
+#include <cstdio>
+#include <cstring>
 #include <exception>
+#include <system_error>
 
 #include "config/load.h"
 #include "tools/cli.h"
@@ -35,9 +39,22 @@ int main(int argc, char** argv) {
   } catch (const tools::UsageError& e) {
     fmt::print(stderr, "error: {}\n", e.what());
     return 2;
+  } catch (const std::system_error& e) {
+    // fmt::print reports a failed write to standard output this way (a full disk, for example).
+    if (std::ferror(stdout)) {
+      fmt::print(stderr, "error: standard output: write failed: {}\n", e.code().message());
+      return 2;
+    }
+    fmt::print(stderr, "internal error: {}\n", e.what());
+    return 1;
   } catch (const std::exception& e) {
     fmt::print(stderr, "internal error: {}\n", e.what());
     return 1;
+  }
+  // What the commands printed must have reached its destination (a full disk, a closed pipe).
+  if (std::fflush(stdout) != 0 || std::ferror(stdout)) {
+    fmt::print(stderr, "error: standard output: write failed: {}\n", std::strerror(errno));
+    return 2;
   }
   return 0;
 }
