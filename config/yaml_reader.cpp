@@ -391,11 +391,11 @@ void read_overrides(YamlContext& ctx, const YAML::Node& node, const std::string&
     number("blend", blend, 0.0, false, 1.0);
     o.blend = blend.value_or(1.0);
     std::optional<double> add_scored, add_allowed;
-    number("add_runs_scored", add_scored, -100.0, 100.0);
-    number("add_runs_allowed", add_allowed, -100.0, 100.0);
+    number("add_runs_scored", add_scored, -100.0, true, 100.0);
+    number("add_runs_allowed", add_allowed, -100.0, true, 100.0);
     o.add_runs_scored = add_scored.value_or(0.0);
     o.add_runs_allowed = add_allowed.value_or(0.0);
-    number("sd_runs", o.sd_runs, 0.0, 100.0);
+    number("sd_runs", o.sd_runs, 0.0, true, 100.0);
     const bool runs = m.get("runs_scored") || m.get("runs_allowed");
     const bool adds = m.get("add_runs_scored") || m.get("add_runs_allowed");
     if (!runs && !m.get("win_pct") && !adds) {

@@ -2,13 +2,17 @@
 #include <fmt/core.h>
 
 #include <CLI/CLI.hpp>
+#include <algorithm>
 #include <cerrno>
 #include <cstdio>
 #include <cstring>
 #include <exception>
+#include <string>
 #include <system_error>
+#include <vector>
 
 #include "config/load.h"
+#include "config/suggest.h"
 #include "tools/cli.h"
 #include "tools/commands.h"
 #include "tools/processes.h"
@@ -28,6 +32,19 @@ int main(int argc, char** argv) {
   tools::add_backtest_command(app);
   tools::add_history_commands(app);
   tools::add_whatif_command(app);
+  // A first word that is neither an option nor a command: name it (CLI11 would only say that a
+  // command is required).
+  if (argc > 1 && argv[1][0] != '-') {
+    std::vector<std::string> names;
+    for (const CLI::App* sub : app.get_subcommands({})) names.push_back(sub->get_name());
+    if (std::find(names.begin(), names.end(), argv[1]) == names.end()) {
+      std::string list;
+      for (const auto& n : names) list += (list.empty() ? "" : ", ") + n;
+      fmt::print(stderr, "error: unknown command '{}'{}; the commands are {}\n", argv[1],
+                 config::did_you_mean(argv[1], names), list);
+      return 2;
+    }
+  }
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
