@@ -22,6 +22,26 @@ int edit_distance(std::string_view a, std::string_view b) {
   return row[b.size()];
 }
 
+int transposition_distance(std::string_view a, std::string_view b) {
+  // Optimal string alignment: Wagner-Fischer with a third row for the transposition step.
+  const std::size_t n = b.size();
+  std::vector<int> before(n + 1), previous(n + 1), row(n + 1);
+  std::iota(previous.begin(), previous.end(), 0);
+  for (std::size_t i = 1; i <= a.size(); ++i) {
+    row[0] = static_cast<int>(i);
+    for (std::size_t j = 1; j <= n; ++j) {
+      const int cost = a[i - 1] == b[j - 1] ? 0 : 1;
+      row[j] = std::min({previous[j] + 1, row[j - 1] + 1, previous[j - 1] + cost});
+      if (i > 1 && j > 1 && a[i - 1] == b[j - 2] && a[i - 2] == b[j - 1]) {
+        row[j] = std::min(row[j], before[j - 2] + 1);
+      }
+    }
+    std::swap(before, previous);
+    std::swap(previous, row);
+  }
+  return previous[n];
+}
+
 namespace {
 
 std::string lower(std::string_view s) {
@@ -43,7 +63,7 @@ std::optional<std::string> closest_match(std::string_view word,
   const std::string* found = nullptr;
   for (const auto& c : candidates) {
     if (c.size() > 64) continue;
-    const int d = edit_distance(w, lower(c));
+    const int d = transposition_distance(w, lower(c));
     if (d < best) {
       best = d;
       found = &c;

@@ -35,3 +35,20 @@ TEST_CASE("suggestions are given for likely typos only") {
   CHECK(did_you_mean("zzzzzz", keys).empty());
   CHECK_FALSE(closest_match(std::string(500, 'x'), keys).has_value());  // junk is not a typo
 }
+
+TEST_CASE("a swap of two adjacent characters is one edit in suggestions") {
+  // Ref: Damerau (1964), "A technique for computer detection and correction of spelling errors",
+  // CACM 7(3): a transposition of adjacent letters is one error; values worked from that
+  // definition (optimal string alignment), and the Levenshtein values from python-Levenshtein
+  // 0.12.2 Levenshtein.distance('PBE', 'PEB'); 2.
+  CHECK(transposition_distance("PBE", "PEB") == 1);
+  CHECK(edit_distance("PBE", "PEB") == 2);
+  CHECK(transposition_distance("RHS", "RSH") == 1);
+  CHECK(transposition_distance("kitten", "sitting") == 3);  // no swap: as Levenshtein
+  CHECK(transposition_distance("abcd", "badc") == 2);       // two separate swaps
+  CHECK(transposition_distance("", "abc") == 3);
+  const std::vector<std::string> ids = {"PEB", "RSH", "GUL"};
+  CHECK(closest_match("PBE", ids) == "PEB");
+  CHECK(closest_match("RHS", ids) == "RSH");
+  CHECK(closest_match("pbe", ids) == "PEB");
+}

@@ -4,6 +4,7 @@
 #include <fmt/core.h>
 
 #include <algorithm>
+#include <cctype>
 #include <cstdint>
 #include <filesystem>
 #include <limits>
@@ -11,8 +12,11 @@
 #include <optional>
 #include <stdexcept>
 #include <string>
+#include <string_view>
+#include <vector>
 
 #include "config/load.h"
+#include "config/suggest.h"
 #include "engine/simulate.h"
 #include "tools/cli.h"
 #include "tools/commands.h"
@@ -32,6 +36,13 @@ constexpr std::uint64_t DEFAULT_SEED = 20260101;
 constexpr std::uint64_t DEFAULT_SEASONS = 100000;
 constexpr std::uint64_t MAX_SEASONS = 1'000'000'000;
 constexpr std::uint64_t MAX_THREADS = 1024;
+
+bool same_ignoring_case(std::string_view a, std::string_view b) {
+  return std::equal(a.begin(), a.end(), b.begin(), b.end(), [](char x, char y) {
+    return std::tolower(static_cast<unsigned char>(x)) ==
+           std::tolower(static_cast<unsigned char>(y));
+  });
+}
 
 struct OddsOptions {
   std::string season_file;
@@ -57,11 +68,19 @@ void run_odds(const OddsOptions& opt) {
   const config::Season season = config::load_season(opt.season_file);
   check_output_target(opt.report.output, season.input_files);
   if (lead) print_warnings(season);
-  if (!opt.group.empty() &&
-      std::none_of(season.groups.begin(), season.groups.end(),
-                   [&](const config::Group& g) { return g.id == opt.group; })) {
-    throw UsageError(fmt::format("--group: no conference or division of {} has the id '{}'",
-                                 opt.season_file, opt.group));
+  // --group: a conference or division id, in any case; the nearest id is suggested otherwise.
+  std::string group;
+  if (!opt.group.empty()) {
+    std::vector<std::string> ids;
+    for (const config::Group& g : season.groups) {
+      ids.push_back(g.id);
+      if (same_ignoring_case(g.id, opt.group)) group = g.id;
+    }
+    if (group.empty()) {
+      throw UsageError(fmt::format("--group: no conference or division of {} has the id '{}'{}",
+                                   opt.season_file, opt.group,
+                                   config::did_you_mean(opt.group, ids)));
+    }
   }
 
   const config::DayNumber as_of = resolve_as_of(season, opt.as_of);
@@ -83,7 +102,7 @@ void run_odds(const OddsOptions& opt) {
   run.rank = process_rank();
   run.ranks = process_count();
   if (run.ranks > 1) run.combine = sum_over_processes;
-  const OddsRun odds = run_odds_at(season, as_of, run, opt.target_se, opt.group);
+  const OddsRun odds = run_odds_at(season, as_of, run, opt.target_se, group);
   if (!lead) return;
   bar.finish();
   if (history) history->record(history_run(odds, season));
