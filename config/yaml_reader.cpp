@@ -1,10 +1,13 @@
 #include "config/yaml_reader.h"
 
 #include <yaml-cpp/depthguard.h>
+#include <yaml-cpp/eventhandler.h>
+#include <yaml-cpp/parser.h>
 
 #include <cmath>
 #include <functional>
 #include <set>
+#include <sstream>
 #include <string_view>
 
 #include "config/postseason_reader.h"
@@ -643,9 +646,7 @@ std::optional<SourcePos> unclosed_quote(std::string_view text, int last_line,
 }
 
 // The line where the second document of a stream starts (its `---`), or the root's own line.
-SourcePos second_document_pos(std::string_view text, const YAML::Node& root,
-                              const std::string& file) {
-  const YAML::Mark m = root.Mark();
+SourcePos second_document_pos(std::string_view text, const YAML::Mark& m, const std::string& file) {
   std::size_t at = m.is_null() ? text.size() : offset_of(text, m);
   if (at == std::string_view::npos) at = text.size();
   std::size_t start = text.rfind("\n---", at);
@@ -653,6 +654,36 @@ SourcePos second_document_pos(std::string_view text, const YAML::Node& root,
   int line = 1;
   for (std::size_t i = 0; i < start; ++i) line += text[i] == '\n';
   return SourcePos{file, line, 1};
+}
+
+// Where each document of a stream starts, from the parser's events (nothing is built).
+class DocumentStarts : public YAML::EventHandler {
+ public:
+  std::vector<YAML::Mark> starts;
+  void OnDocumentStart(const YAML::Mark& mark) override { starts.push_back(mark); }
+  void OnDocumentEnd() override {}
+  void OnNull(const YAML::Mark&, YAML::anchor_t) override {}
+  void OnAlias(const YAML::Mark&, YAML::anchor_t) override {}
+  void OnScalar(const YAML::Mark&, const std::string&, YAML::anchor_t,
+                const std::string&) override {}
+  void OnSequenceStart(const YAML::Mark&, const std::string&, YAML::anchor_t,
+                       YAML::EmitterStyle::value) override {}
+  void OnSequenceEnd() override {}
+  void OnMapStart(const YAML::Mark&, const std::string&, YAML::anchor_t,
+                  YAML::EmitterStyle::value) override {}
+  void OnMapEnd() override {}
+};
+
+// The start of at most the first two documents. yaml-cpp's LoadAll never ends on a stray flow
+// entry (a lone `,` at the top level): the parser returns an empty document without consuming
+// the token, again and again. Two starts at the same place mean exactly that.
+std::vector<YAML::Mark> first_documents(const std::string& text) {
+  std::istringstream in(text);
+  YAML::Parser parser(in);
+  DocumentStarts events;
+  for (int i = 0; i < 2 && parser.HandleNextDocument(events); ++i) {
+  }
+  return events.starts;
 }
 
 SourcePos mark_pos(const std::string& file, const YAML::Mark& mark) {
@@ -667,14 +698,19 @@ YamlResult read_season_yaml(const std::string& text, Season& season, Report& rep
   YamlContext ctx(season.file, report);
   YAML::Node root;
   try {
-    std::vector<YAML::Node> documents = YAML::LoadAll(text);
-    if (documents.size() > 1) {
-      report.error(second_document_pos(text, documents[1], season.file),
+    const std::vector<YAML::Mark> starts = first_documents(text);
+    if (starts.size() > 1 && starts[1].pos == starts[0].pos) {
+      report.error(mark_pos(season.file, starts[1]),
+                   "YAML syntax error: a ',' outside a [list] or {map}");
+      return out;
+    }
+    if (starts.size() > 1) {
+      report.error(second_document_pos(text, starts[1], season.file),
                    "a second YAML document starts here: a season file holds one document "
                    "(remove this `---` and what follows, or merge it into the first)");
       return out;
     }
-    if (!documents.empty()) root = documents.front();
+    if (!starts.empty()) root = YAML::Load(text);
   } catch (const YAML::DeepRecursion& e) {
     report.error(mark_pos(season.file, e.mark),
                  "lists and maps nested too deeply for the YAML reader (hundreds of levels): a "
