@@ -31,18 +31,10 @@ Run run_err(const std::string& args) {
   return standfast::testing::run_process(PROGRAM + " " + args + " 2>&1");
 }
 
-std::string read_file(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
+using standfast::testing::read_file;
 
 fs::path fresh_dir(const std::string& name) {
-  const fs::path dir = fs::path(STANDFAST_BINARY_DIR) / "history_cli_test" / name;
-  fs::remove_all(dir);
-  fs::create_directories(dir);
-  return dir;
+  return standfast::testing::fresh_dir("history_cli_test", name);
 }
 
 }  // namespace

@@ -28,18 +28,10 @@ Run run(const std::string& args) {
   return standfast::testing::run_process(PROGRAM + " " + args + " 2>/dev/null");
 }
 
-std::string read_file(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
+using standfast::testing::read_file;
 
 fs::path fresh_dir(const std::string& name) {
-  const fs::path dir = fs::path(STANDFAST_BINARY_DIR) / "odds_cli_test" / name;
-  fs::remove_all(dir);
-  fs::create_directories(dir);
-  return dir;
+  return standfast::testing::fresh_dir("odds_cli_test", name);
 }
 
 }  // namespace

@@ -8,6 +8,7 @@
 
 #include <cstdio>
 #include <filesystem>
+#include <fstream>
 #include <map>
 #include <sstream>
 #include <string>
@@ -61,6 +62,22 @@ inline std::map<std::string, double> parse_reference_values(const std::string& t
     }
   }
   return values;
+}
+
+// The whole content of a file (empty when it cannot be read).
+inline std::string read_file(const std::filesystem::path& p) {
+  std::ifstream in(p, std::ios::binary);
+  std::ostringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+// An empty folder build/<test>/<name> for one test case's files.
+inline std::filesystem::path fresh_dir(const std::string& test, const std::string& name) {
+  const std::filesystem::path dir = std::filesystem::path(STANDFAST_BINARY_DIR) / test / name;
+  std::filesystem::remove_all(dir);
+  std::filesystem::create_directories(dir);
+  return dir;
 }
 
 }  // namespace standfast::testing

@@ -25,18 +25,10 @@ const std::string PROGRAM = STANDFAST_BINARY_DIR "/tools/standfast";
 const std::string SMALL = STANDFAST_SOURCE_DIR "/scenarios/small/season.yaml";
 const std::string CHECKER = STANDFAST_SOURCE_DIR "/tests/browser/check_report.py";
 
-std::string read_file(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
+using standfast::testing::read_file;
 
 fs::path fresh_dir(const std::string& name) {
-  const fs::path dir = fs::path(STANDFAST_BINARY_DIR) / "report_page_test" / name;
-  fs::remove_all(dir);
-  fs::create_directories(dir);
-  return dir;
+  return standfast::testing::fresh_dir("report_page_test", name);
 }
 
 bool have_chromium() { return fs::exists("/usr/bin/chromium"); }
