@@ -315,6 +315,7 @@ void add_check_command(CLI::App& app) {
   cmd->callback([opt] {
     const Format format = check_report_options(opt->report);
     const Season season = load_season_file(opt->file);
+    check_output_target(opt->report.output, season.input_files);
     const Provenance run = make_provenance(season);
     std::string text;
     switch (format) {
