@@ -13,6 +13,7 @@
 
 #include "config/as_of.h"
 #include "config/load.h"
+#include "tools/cli.h"
 #include "tools/commands.h"
 #include "tools/history.h"
 #include "tools/movers.h"
@@ -66,11 +67,14 @@ std::filesystem::path history_path(const RunFlags& f) {
   return f.history.empty() ? default_history_path() : std::filesystem::path(f.history);
 }
 
-config::Season load(const RunFlags& f) {
+// Loads the season, prints its warnings, and refuses an output path that is a file the run
+// reads (the season file, its games file or the history) before any work.
+config::Season load(const RunFlags& f, const std::vector<std::string>& outputs) {
   config::Season season = config::load_season(f.season_file);
-  for (const auto& w : season.warnings) {
-    fmt::print(stderr, "warning: {}\n", config::format_diagnostic(w));
-  }
+  std::vector<std::string> inputs = season.input_files;
+  inputs.push_back(history_path(f).string());
+  for (const std::string& out : outputs) check_output_target(out, inputs);
+  print_warnings(season);
   return season;
 }
 
@@ -127,7 +131,7 @@ void run_replay(const ReplayFlags& f) {
       throw UsageError(fmt::format("--from: expected a date YYYY-MM-DD, got '{}'", f.from));
   }
   const engine::RunOptions run = run_options(f, f.seasons);
-  const config::Season season = load(f);
+  const config::Season season = load(f, {f.output});
   const auto dates = replay_dates(season, f.every, from);
   History history = History::open(history_path(f), true);
   fmt::print(stderr, "replay: {} as-of dates, {} seasons each, into {}\n", dates.size(),
@@ -278,7 +282,7 @@ void run_movers(const MoversFlags& f) {
     throw UsageError(fmt::format("--format: expected table, json or markdown, got '{}'", f.format));
   }
   check_top(f.top);
-  const config::Season season = load(f);
+  const config::Season season = load(f, {f.output});
   const History history = History::open(history_path(f), false);
   const auto runs = history.runs(season.league.name, season.league.season_label);
   const auto [before, after] = pick_runs(runs, f.from, f.to, history.file().string());
@@ -318,7 +322,7 @@ void run_report(const ReportFlags& f) {
   }
   engine::RunOptions run = run_options(f, f.seasons);
   run.target_se = f.target_se;
-  const config::Season season = load(f);
+  const config::Season season = load(f, {f.output, f.markdown});
   const config::DayNumber as_of = resolve_as_of(season, f.as_of);
   History history = History::open(history_path(f), true);
 

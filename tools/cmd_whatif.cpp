@@ -14,6 +14,7 @@
 #include "engine/compare.h"
 #include "engine/plan.h"
 #include "models/ratings.h"
+#include "tools/cli.h"
 #include "tools/commands.h"
 #include "tools/output.h"
 #include "tools/progress.h"
@@ -43,8 +44,10 @@ void run_whatif(const WhatifOptions& opt) {
     throw UsageError(fmt::format("--threads: expected 0 (all cores) or more, got {}", opt.threads));
 
   const config::Season season = config::load_season(opt.season_file);
-  for (const auto& w : season.warnings)
-    fmt::print(stderr, "warning: {}\n", config::format_diagnostic(w));
+  std::vector<std::string> inputs = season.input_files;
+  inputs.push_back(opt.scenario_file);
+  check_output_target(opt.output, inputs);
+  print_warnings(season);
   const config::ScenarioSet set = config::load_scenarios(opt.scenario_file, season);
   if (set.scenarios.empty())
     throw UsageError(fmt::format("{}: the file lists no scenario", opt.scenario_file));
