@@ -85,8 +85,26 @@ class SeasonRunner {
   }
 
   void run(SeasonStreams& streams, Worker& w) const {
+    draw(streams, w);
+    play(streams, w);
+    settle(streams, w);
+  }
+
+  // The steps of run(), public for engines that replay part of a season on the same streams
+  // (engine/win_value.h).
+  //
+  // The season's true strengths, into w.off, w.def and w.odds (every slot).
+  void draw(const SeasonStreams& streams, Worker& w) const {
     Rng strengths = streams.stream(Purpose::kStrengths);
-    draw_strengths(strengths, w);
+    draw_strengths(strengths, w, /*point=*/false);
+  }
+  // The point estimates (no draw from the fitted uncertainty), with the overrides applied.
+  void draw_point_estimates(Worker& w) const {
+    Rng unused = make_stream(0, 0, Purpose::kStrengths);
+    draw_strengths(unused, w, /*point=*/true);
+  }
+  // The regular season: every remaining game, into w.totals and w.record.
+  void play(const SeasonStreams& streams, Worker& w) const {
     w.record = plan_.played;  // same size: copies without allocating
     Rng games = streams.stream(Purpose::kGames);
     switch (plan_.model) {
@@ -103,11 +121,29 @@ class SeasonRunner {
         play_regular<GameModel::kLog5>(games, w);
         break;
     }
+  }
+  // Standings, tiebreakers, seeds and the postseason from w.record; adds every team's season
+  // to w.tally when `add_tally`. With `focus` >= 0 the postseason is played only when that team
+  // has a berth (otherwise no team is champion): for engines that read one team's outcome.
+  void settle(const SeasonStreams& streams, Worker& w, bool add_tally = true,
+              int focus = -1) const {
     Rng tiebreak = streams.stream(Purpose::kTiebreak);
     HookContext tie_ctx{this, &w, &tiebreak};
     plan_.seeder.rank(w.record, tiebreak, w.scratch, w.ranking, ExtraGame{&tie_ctx, &hook_play});
-    tally(streams, w);
+    tally(streams, w, add_tally, focus);
   }
+
+  const GameEngine& games() const { return games_; }
+  // The parameters of matchup i of the plan from the season's values in w (w.off, w.def,
+  // w.odds), as the season loop computes them.
+  Sides matchup_sides(const Worker& w, std::size_t i) const {
+    const Matchup& m = plan_.matchups[i];
+    return games_.sides(
+        w.off[m.home_slot] * w.def[m.away_slot] * static_cast<double>(m.home_factor),
+        w.off[m.away_slot] * w.def[m.home_slot] * static_cast<double>(m.away_factor),
+        w.odds[m.home_slot] * home_odds_factor_, w.odds[m.away_slot]);
+  }
+  double home_odds_factor() const { return home_odds_factor_; }
 
  private:
   struct HookContext {
@@ -133,9 +169,9 @@ class SeasonRunner {
     return games_.play(rng, sides, /*cap=*/false).home_won ? home : away;
   }
 
-  void draw_strengths(Rng& rng, Worker& w) const {
+  void draw_strengths(Rng& rng, Worker& w, bool point) const {
     const auto n = static_cast<std::size_t>(plan_.teams);
-    if (plan_.draw_strengths) {
+    if (plan_.draw_strengths && !point) {
       standard_normals(rng, w.z.data(), w.z.size());
       plan_.strengths.draw(w.z.data(), w.work.data(), w.x.data());
     } else {
@@ -271,7 +307,7 @@ class SeasonRunner {
     w.tally.add_games(count, extra, drawn);
   }
 
-  void tally(SeasonStreams& streams, Worker& w) const {
+  void tally(const SeasonStreams& streams, Worker& w, bool add_tally, int focus) const {
     const auto n = static_cast<std::size_t>(plan_.teams);
     std::fill(w.seed_of.begin(), w.seed_of.end(), 0);
     std::fill(w.reached.begin(), w.reached.end(), -1);
@@ -287,21 +323,26 @@ class SeasonRunner {
       if (postseason_) post.emplace(streams.stream(Purpose::kPostseason));
       HookContext ctx{this, &w, post ? &*post : nullptr};
       const ExtraGame game{&ctx, &hook_play};
-      w.champions.clear();
+      auto seeds_of = [&](const PlanBracket& b) {
+        return b.conference_position < 0 ? std::span<const int>(w.ranking.league_seeds)
+                                         : w.ranking.conference_seeds(b.conference_position);
+      };
       for (const PlanBracket& b : plan_.brackets) {
-        const std::span<const int> seeds = b.conference_position < 0
-                                               ? std::span<const int>(w.ranking.league_seeds)
-                                               : w.ranking.conference_seeds(b.conference_position);
+        const std::span<const int> seeds = seeds_of(b);
         for (std::size_t s = 0; s < seeds.size(); ++s) {
           const auto t = static_cast<std::size_t>(seeds[s]);
           w.seed_of[t] = static_cast<int>(s) + 1;
           w.is_bye[t] = static_cast<int>(s) < b.byes;
         }
-        if (postseason_)
-          w.champions.push_back(
-              play_bracket(b, plan_.rounds, plan_.reseed, seeds, game, w.reached, w.bracket));
       }
-      if (postseason_) {
+      const bool play_post =
+          postseason_ && (focus < 0 || w.seed_of[static_cast<std::size_t>(focus)] > 0);
+      w.champions.clear();
+      if (play_post)
+        for (const PlanBracket& b : plan_.brackets)
+          w.champions.push_back(
+              play_bracket(b, plan_.rounds, plan_.reseed, seeds_of(b), game, w.reached, w.bracket));
+      if (play_post) {
         if (plan_.final_stage) {
           // Conference winners seeded by record; equal records by a random draw.
           w.champion_key.clear();
@@ -336,6 +377,7 @@ class SeasonRunner {
         }
       }
     }
+    if (!add_tally) return;
     for (std::size_t t = 0; t < n; ++t) {
       const int ti = static_cast<int>(t);
       w.tally.add_team(ti, w.record.wins(ti), w.record.losses(ti), w.seed_of[t],

@@ -163,6 +163,46 @@ void SeasonTotals::add_to(SeasonRecord& record) {
   if (!l.windows_.empty()) record.defer_windows(this, &SeasonTotals::fill_windows);
 }
 
+void SeasonTotals::update(SeasonRecord& record, std::span<const std::uint32_t> groups,
+                          std::span<const std::uint64_t> old_words) {
+  const TotalsLayout& l = *layout_;
+  constexpr std::uint64_t RUNS_MASK = (1u << 26) - 1u;
+  for (std::size_t i = 0; i < groups.size(); ++i) {
+    const std::uint32_t k = groups[i];
+    if (k >= l.groups_.size()) continue;  // a group that counts for nobody
+    const TotalsLayout::Group& gr = l.groups_[k];
+    const std::uint64_t w0 = old_words[i], w1 = word_[k];
+    const int dh = static_cast<int>(w1 >> 52) - static_cast<int>(w0 >> 52);
+    const int dhr =
+        static_cast<int>((w1 >> 26) & RUNS_MASK) - static_cast<int>((w0 >> 26) & RUNS_MASK);
+    const int dar = static_cast<int>(w1 & RUNS_MASK) - static_cast<int>(w0 & RUNS_MASK);
+    const int div = static_cast<int>((gr.credit >> 16) & 1u),
+              conf = static_cast<int>((gr.credit >> 32) & 1u);
+    SeasonRecord::TeamResults h, a;
+    h.wins = dh;
+    h.losses = -dh;
+    h.division_wins = dh * div;
+    h.division_losses = -dh * div;
+    h.conference_wins = dh * conf;
+    h.conference_losses = -dh * conf;
+    h.runs_for = dhr;
+    h.runs_against = dar;
+    a.wins = -dh;
+    a.losses = dh;
+    a.division_wins = -dh * div;
+    a.division_losses = dh * div;
+    a.conference_wins = -dh * conf;
+    a.conference_losses = dh * conf;
+    a.runs_for = dar;
+    a.runs_against = dhr;
+    record.add_team_results(gr.home, h);
+    record.add_team_results(gr.away, a);
+    record.add_h2h(gr.home, gr.away, dh);
+    record.add_h2h(gr.away, gr.home, -dh);
+  }
+  if (!l.windows_.empty()) record.defer_windows(this, &SeasonTotals::fill_windows);
+}
+
 void SeasonTotals::fill_windows(void* self, SeasonRecord& record) {
   auto& totals = *static_cast<SeasonTotals*>(self);
   for (const TotalsLayout::WindowTeam& w : totals.layout_->windows_) {

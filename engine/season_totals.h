@@ -118,6 +118,12 @@ class SeasonTotals {
   // the record is done with or copied.
   void add_to(SeasonRecord& record);
 
+  // `record` holds the season's games as add_to left them when the words of `groups` were
+  // `old_words`; brings it up to date with those groups' current words (and defers the windows
+  // again). For a replay of a few groups (engine/shift_replay.h): the same record as add_to.
+  void update(SeasonRecord& record, std::span<const std::uint32_t> groups,
+              std::span<const std::uint64_t> old_words);
+
  private:
   static void fill_windows(void* self, SeasonRecord& record);
 
