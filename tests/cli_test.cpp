@@ -11,6 +11,8 @@
 #include <filesystem>
 #include <fstream>
 #include <limits>
+#include <nlohmann/json.hpp>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -155,5 +157,132 @@ TEST_CASE("the program: --version, bad numbers exit 2, help shows one style") {
     CHECK(help.out.find("(default: table)") != std::string::npos);
     CHECK(help.out.find("-o,--output") != std::string::npos);
     CHECK(help.out.find("(default: standard output)") != std::string::npos);
+  }
+}
+
+namespace {
+
+// Parses `--family F` and/or `--shape S` as a command would; returns the error text or "".
+std::string parse_model(const std::vector<std::string>& args_in,
+                        standfast::tools::ModelOptions& options) {
+  CLI::App app;
+  standfast::tools::add_model_options(app, options);
+  std::vector<std::string> args(args_in.rbegin(), args_in.rend());  // CLI11 takes them reversed
+  try {
+    app.parse(args);
+  } catch (const CLI::ParseError& e) {
+    return e.what();
+  }
+  return "";
+}
+
+standfast::config::Season two_teams(standfast::config::ScoreFamily family,
+                                    std::optional<double> shape) {
+  standfast::config::Season s;
+  s.file = "two.yaml";
+  for (const char* id : {"AAA", "BBB"}) {
+    standfast::config::Team t;
+    t.id = id;
+    s.teams.push_back(t);
+  }
+  s.model.family = family;
+  s.model.shape = shape;
+  return s;
+}
+
+}  // namespace
+
+TEST_CASE("--family and --shape switch the model of one run") {
+  using namespace standfast::tools;
+  using standfast::config::ScoreFamily;
+  {
+    ModelOptions o;
+    CHECK(parse_model({"--family", "poisson"}, o).empty());
+    CHECK(o.family == "poisson");
+    ModelOptions bad;
+    const std::string e = parse_model({"--family", "negativ_binomial"}, bad);
+    CHECK(e.find("--family") != std::string::npos);
+    CHECK(e.find("did you mean 'negative_binomial'") != std::string::npos);
+    CHECK_FALSE(parse_model({"--shape", "0.1"}, bad).empty());
+    CHECK_FALSE(parse_model({"--shape", "nan"}, bad).empty());
+    CHECK_FALSE(parse_model({"--shape", "fitted"}, bad).empty());
+    ModelOptions fit;
+    CHECK(parse_model({"--shape", "fit"}, fit).empty());
+    CHECK(parse_model({"--shape", "1.9"}, fit).empty());
+  }
+  // Another family drops the file's fixed shape (it belongs to the file's family) ...
+  auto s = two_teams(ScoreFamily::kWeibull, 1.83);
+  apply_model_options({"negative_binomial", ""}, s);
+  CHECK(s.model.family == ScoreFamily::kNegativeBinomial);
+  CHECK_FALSE(s.model.shape.has_value());
+  // ... unless --shape states one; the same family keeps it; no option changes nothing.
+  s = two_teams(ScoreFamily::kWeibull, 1.83);
+  apply_model_options({"negative_binomial", "12"}, s);
+  CHECK(s.model.shape == 12.0);
+  s = two_teams(ScoreFamily::kWeibull, 1.83);
+  apply_model_options({"weibull", ""}, s);
+  CHECK(s.model.shape == 1.83);
+  apply_model_options({"", "fit"}, s);
+  CHECK_FALSE(s.model.shape.has_value());
+  apply_model_options({}, s);
+  CHECK(s.model.family == ScoreFamily::kWeibull);
+  // A shape for a family that has none, and log5 without win percentages, are refused.
+  s = two_teams(ScoreFamily::kWeibull, std::nullopt);
+  CHECK_THROWS_AS(apply_model_options({"poisson", "1.8"}, s), UsageError);
+  try {
+    apply_model_options({"log5", ""}, s);
+    FAIL("log5 without win_pct overrides was accepted");
+  } catch (const UsageError& e) {
+    CHECK(std::string(e.what()).find("two.yaml has none for AAA, BBB") != std::string::npos);
+  }
+  for (int t = 0; t < 2; ++t) {
+    standfast::config::TeamOverride o;
+    o.team = t;
+    o.win_pct = 0.5;
+    s.overrides.push_back(o);
+  }
+  apply_model_options({"log5", ""}, s);
+  CHECK(s.model.family == ScoreFamily::kLog5);
+}
+
+TEST_CASE("the program: every run records the family and shape --family and --shape set") {
+  using standfast::testing::run_process;
+  const auto json = [](const std::string& args) {
+    const auto r = run_process(PROGRAM + " " + args + " --format json");
+    REQUIRE(r.status == 0);
+    return nlohmann::json::parse(r.out);
+  };
+  const auto odds = json("odds " + SMALL + " --seasons 200 --family poisson");
+  CHECK(odds["run"]["family"] == "poisson");
+  CHECK(odds["run"]["shape"].is_null());
+  const auto nb = json("odds " + SMALL + " --seasons 200 --family negative_binomial --shape 12");
+  CHECK(nb["run"]["family"] == "negative_binomial");
+  CHECK(nb["run"]["shape"] == 12.0);
+  CHECK(nb["run"]["shape_source"] == "fixed");
+  const auto fit = json("fit " + SMALL + " --family negative_binomial");
+  CHECK(fit["run"]["family"] == "negative_binomial");
+  CHECK(fit["run"]["shape_source"] == "fitted");
+  const auto bt = json("backtest --runs 2 --seasons 100 --family poisson");
+  const std::string demo = STANDFAST_SOURCE_DIR "/scenarios/demo/";
+  const auto whatif =
+      json("whatif " + demo + "season.yaml " + demo + "whatif.yaml --seasons 100 --family poisson");
+  CHECK(whatif["baseline_model"]["family"] == "poisson");
+  CHECK(bt["forecast_model"]["family"] == "poisson");
+
+  // Refused before any work, exit status 2, the option named.
+  for (const char* bad : {"--family log5", "--family poison", "--family poisson --shape 2",
+                          "--shape 0.1", "--shape abc"}) {
+    INFO(bad);
+    const auto r = run_process(PROGRAM + " odds " + SMALL + " --seasons 200 " + bad + " 2>&1");
+    CHECK(r.status == 2);
+    CHECK((r.out.find("--family") != std::string::npos ||
+           r.out.find("--shape") != std::string::npos));
+  }
+  for (const char* command : {"fit", "odds", "whatif", "replay", "movers", "report", "backtest"}) {
+    INFO(command);
+    const auto help = run_process(PROGRAM + " " + command + " --help");
+    CHECK(help.status == 0);
+    CHECK(help.out.find("--family") != std::string::npos);
+    CHECK(help.out.find("--shape") != std::string::npos);
   }
 }

@@ -211,6 +211,15 @@ BacktestResult run_backtest(const BacktestOptions& o) {
   if (o.threads < 0)
     throw UsageError(fmt::format("--threads: expected 0 (all cores) or more, got {}", o.threads));
   const config::Season base = config::load_season_text(league_yaml(), "backtest-league.yaml");
+  BacktestResult res;
+  {
+    config::Season check = base;  // refuses options that cannot apply, before any work
+    apply_model_options(o.model, check);
+    res.family = models::family_name(check.model.family);
+    const bool shaped = check.model.family == config::ScoreFamily::kWeibull ||
+                        check.model.family == config::ScoreFamily::kNegativeBinomial;
+    res.shape = !shaped ? "" : check.model.shape ? fmt::format("{:g}", *check.model.shape) : "fit";
+  }
   const std::vector<double> zeros(TEAMS, 0.0);
   const models::LeagueRatings neutral = fixed_ratings(zeros, zeros, 1.0);
   std::vector<double> forecast[3], naive[3];
@@ -221,6 +230,7 @@ BacktestResult run_backtest(const BacktestOptions& o) {
     const config::Season full = synthetic_season(base, key, truth);
     // The season at the chosen point: later games not yet played.
     config::Season now = full;
+    apply_model_options(o.model, now);
     const std::size_t cut = static_cast<std::size_t>(std::floor(o.at * full.games.size()));
     const config::DayNumber cut_day = *full.games[cut].date;
     for (auto& g : now.games) {
@@ -247,7 +257,6 @@ BacktestResult run_backtest(const BacktestOptions& o) {
       }
     }
   }
-  BacktestResult res;
   res.options = o;
   res.teams = TEAMS;
   res.games_per_team = GAMES_PER_TEAM;
@@ -272,9 +281,12 @@ BacktestResult run_backtest(const BacktestOptions& o) {
 std::string write_backtest_table(const BacktestResult& r) {
   std::string s = fmt::format(
       "Calibration backtest: {} synthetic seasons of {} clubs ({} games each), odds after {:.0f}% "
-      "of the games from {} simulated seasons each, seed {}\n{}\n",
+      "of the games from {} simulated seasons each, seed {}; forecast model {}{}\n{}\n",
       r.options.runs, r.teams, r.games_per_team, 100.0 * r.options.at,
-      group_digits(r.options.seasons), r.options.seed, ODDS_CAUTION);
+      group_digits(r.options.seasons), r.options.seed, r.family,
+      r.shape.empty() ? std::string()
+                      : ", shape " + (r.shape == "fit" ? std::string("fitted") : r.shape),
+      ODDS_CAUTION);
   for (const EventScore& e : r.events) {
     s += fmt::format(
         "\n{}: Brier {:.4f}, naive forecast from the standings {:.4f}, skill {:+.3f}; {} "
@@ -296,12 +308,14 @@ std::string write_backtest_table(const BacktestResult& r) {
 std::string write_backtest_csv(const BacktestResult& r) {
   std::string s =
       "event,bin_lo,bin_hi,forecasts,mean_forecast,observed,interval_lo,interval_hi,inside,"
-      "brier,naive_brier,skill\n";
+      "brier,naive_brier,skill,forecast_family,forecast_shape\n";
   for (const EventScore& e : r.events) {
     for (const ReliabilityBin& b : e.bins) {
-      s += fmt::format("{},{:.1f},{:.1f},{},{:.6f},{:.6f},{:.6f},{:.6f},{},{:.6f},{:.6f},{:.6f}\n",
-                       e.event, b.lo, b.hi, b.forecasts, b.mean_forecast, b.observed, b.interval_lo,
-                       b.interval_hi, b.inside ? "yes" : "no", e.brier, e.naive_brier, e.skill);
+      s += fmt::format(
+          "{},{:.1f},{:.1f},{},{:.6f},{:.6f},{:.6f},{:.6f},{},{:.6f},{:.6f},{:.6f},{},{}\n",
+          e.event, b.lo, b.hi, b.forecasts, b.mean_forecast, b.observed, b.interval_lo,
+          b.interval_hi, b.inside ? "yes" : "no", e.brier, e.naive_brier, e.skill, r.family,
+          r.shape);
     }
   }
   return s;
@@ -318,6 +332,9 @@ std::string write_backtest_json(const BacktestResult& r) {
   j["seed"] = r.options.seed;
   j["teams"] = r.teams;
   j["games_per_team"] = r.games_per_team;
+  j["forecast_model"] = {
+      {"family", r.family},
+      {"shape", r.shape.empty() ? nlohmann::json(nullptr) : nlohmann::json(r.shape)}};
   for (const EventScore& e : r.events) {
     nlohmann::json ej{
         {"event", e.event},       {"forecasts", e.forecasts}, {"mean_forecast", e.mean_forecast},

@@ -10,6 +10,8 @@
 #include <string>
 #include <vector>
 
+#include "tools/cli.h"
+
 namespace standfast::tools {
 
 struct BacktestOptions {
@@ -18,6 +20,7 @@ struct BacktestOptions {
   double at = 0.5;                // share of each season's games played when the odds are made
   std::uint64_t seed = 20260101;  // truth, schedule, scores and simulations all follow from it
   int threads = 0;
+  ModelOptions model;  // the forecasts' model (the truth is always the Weibull generator's)
 };
 
 struct ReliabilityBin {
@@ -41,6 +44,8 @@ struct EventScore {
 struct BacktestResult {
   BacktestOptions options;
   int teams = 0, games_per_team = 0;
+  std::string family;  // the forecasts' scoring family
+  std::string shape;   // its shape: "fit" (fitted in each synthetic season), a number, or empty
   std::vector<EventScore> events;
 };
 

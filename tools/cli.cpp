@@ -3,6 +3,7 @@
 #include <fmt/core.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <cerrno>
 #include <charconv>
 #include <cmath>
@@ -10,8 +11,10 @@
 #include <filesystem>
 #include <limits>
 #include <system_error>
+#include <vector>
 
 #include "config/load.h"
+#include "config/suggest.h"
 #include "tools/commands.h"
 
 #ifndef STANDFAST_VERSION
@@ -156,6 +159,103 @@ config::Season load_season_file(const std::string& file) {
   config::Season season = config::load_season(file);
   print_warnings(season);
   return season;
+}
+
+namespace {
+
+std::vector<std::string> family_names() {
+  return {std::begin(FAMILY_NAMES), std::end(FAMILY_NAMES)};
+}
+
+bool has_shape(config::ScoreFamily f) {
+  return f == config::ScoreFamily::kWeibull || f == config::ScoreFamily::kNegativeBinomial;
+}
+
+}  // namespace
+
+void add_model_options(CLI::App& cmd, ModelOptions& options) {
+  cmd.add_option("--family", options.family,
+                 help_text("Scoring family for this run instead of the season file's: weibull, "
+                           "negative_binomial, poisson or log5 (log5 needs a win_pct override "
+                           "for every team)",
+                           "the season file's"))
+      ->check(CLI::Validator(
+          [](std::string& text) -> std::string {
+            for (std::string_view name : FAMILY_NAMES)
+              if (text == name) return {};
+            return fmt::format("expected weibull, negative_binomial, poisson or log5, got '{}'{}",
+                               text, config::did_you_mean(text, family_names()));
+          },
+          ""));
+  cmd.add_option("--shape", options.shape,
+                 help_text(fmt::format("Shape of the family for this run: `fit` (fitted to the "
+                                       "played games) or a number from {:g} to {:g} (Weibull "
+                                       "shape, negative-binomial size)",
+                                       config::MIN_SHAPE, config::MAX_SHAPE),
+                           "the season file's; fitted when --family changes the family"))
+      ->check(CLI::Validator(
+          [](std::string& text) -> std::string {
+            if (text == "fit") return {};
+            std::string copy = text;
+            const std::string problem =
+                real_number({config::MIN_SHAPE, config::MAX_SHAPE, false, false})(copy);
+            return problem.empty() ? problem : problem + " or 'fit'";
+          },
+          ""));
+}
+
+bool family_applies(const config::Season& season, config::ScoreFamily family, std::string* why) {
+  if (family != config::ScoreFamily::kLog5) return true;
+  std::vector<bool> has(season.teams.size(), false);
+  for (const config::TeamOverride& o : season.overrides)
+    if (o.win_pct && o.team >= 0 && static_cast<std::size_t>(o.team) < has.size())
+      has[static_cast<std::size_t>(o.team)] = true;
+  std::string missing;
+  int count = 0;
+  for (std::size_t t = 0; t < has.size(); ++t) {
+    if (has[t]) continue;
+    if (++count <= 5) missing += (missing.empty() ? "" : ", ") + season.teams[t].id;
+  }
+  if (count == 0) return true;
+  if (count > 5) missing += fmt::format(" and {} more", count - 5);
+  if (why != nullptr)
+    *why = fmt::format("log5 needs a win_pct override for every team; {} has none for {}",
+                       season.file, missing);
+  return false;
+}
+
+void apply_model_options(const ModelOptions& options, config::Season& season) {
+  config::ModelSpec& model = season.model;
+  if (!options.family.empty()) {
+    const auto* at = std::find(std::begin(FAMILY_NAMES), std::end(FAMILY_NAMES), options.family);
+    if (at == std::end(FAMILY_NAMES))
+      throw UsageError(fmt::format("--family: unknown family '{}'", options.family));
+    const auto family = static_cast<config::ScoreFamily>(at - std::begin(FAMILY_NAMES));
+    std::string why;
+    if (!family_applies(season, family, &why)) throw UsageError("--family: " + why);
+    if (family != model.family) model.shape.reset();  // the file's shape is its own family's
+    model.family = family;
+  }
+  if (!options.shape.empty()) {
+    if (!has_shape(model.family))
+      throw UsageError(fmt::format("--shape: the {} family has no shape",
+                                   FAMILY_NAMES[static_cast<int>(model.family)]));
+    if (options.shape == "fit") {
+      model.shape.reset();
+    } else {
+      double value = 0;
+      const char* first = options.shape.data();
+      const char* last = first + options.shape.size();
+      if (first != last && *first == '+') ++first;
+      const auto [end, ec] = std::from_chars(first, last, value);
+      if (ec != std::errc{} || end != last || !(value >= config::MIN_SHAPE) ||
+          !(value <= config::MAX_SHAPE))
+        throw UsageError(
+            fmt::format("--shape: expected `fit` or a number from {:g} to {:g}, got '{}'",
+                        config::MIN_SHAPE, config::MAX_SHAPE, options.shape));
+      model.shape = value;
+    }
+  }
 }
 
 }  // namespace standfast::tools

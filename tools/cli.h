@@ -70,6 +70,28 @@ std::string warning_line(const config::Diagnostic& warning);
 // Loads and validates the season file and prints its warnings. Throws config::ConfigError.
 config::Season load_season_file(const std::string& file);
 
+// --family and --shape: the scoring model of a run, switched without editing the season file.
+// Every command that fits or simulates takes them, with the same names and help.
+struct ModelOptions {
+  std::string family;  // empty: the season file's family
+  std::string shape;   // empty: the file's shape (fitted after a family switch); "fit" or a number
+};
+void add_model_options(CLI::App& cmd, ModelOptions& options);
+
+// The family names the options (and the season file) take, in the order of config::ScoreFamily.
+inline constexpr std::string_view FAMILY_NAMES[] = {"weibull", "negative_binomial", "poisson",
+                                                    "log5"};
+
+// Applies the options to the season's model. A family other than the file's is fitted afresh:
+// the file's fixed shape (which belongs to its own family) is dropped unless --shape states one.
+// Throws UsageError when the options cannot apply: --shape for a family without a shape
+// (poisson, log5), or log5 for a season without a win_pct override for every team.
+void apply_model_options(const ModelOptions& options, config::Season& season);
+
+// Whether the season can run under `family` as it stands (log5 needs a win_pct override for
+// every team); when not, `why` says what is missing.
+bool family_applies(const config::Season& season, config::ScoreFamily family, std::string* why);
+
 }  // namespace standfast::tools
 
 #endif  // STANDFAST_TOOLS_CLI_H

@@ -32,6 +32,7 @@ void add_backtest_command(CLI::App& app) {
   cmd->add_option("--format", opt->format, "Output format: table, csv or json (default table)");
   cmd->add_option("-o,--output", opt->output,
                   "Write to this file (whole or not at all) instead of standard output");
+  add_model_options(*cmd, opt->run.model);
   cmd->callback([opt] {
     const Format format = parse_format(opt->format);
     const BacktestResult r = run_backtest(opt->run);

@@ -314,11 +314,13 @@ void add_fit_command(CLI::App& app) {
   struct Options {
     std::string file, as_of;
     ReportOptions report;
+    ModelOptions model;
     double alpha = 0.05;
   };
   auto opt = std::make_shared<Options>();
   add_season_file(*cmd, opt->file);
   add_report_options(*cmd, opt->report);
+  add_model_options(*cmd, opt->model);
   cmd->add_option(
          "--alpha", opt->alpha,
          help_text("Family-wise level of the goodness-of-fit tests, between 0 and 1", "0.05"))
@@ -328,7 +330,8 @@ void add_fit_command(CLI::App& app) {
       help_text("Fit only the games played before this date (YYYY-MM-DD)", "every played game"));
   cmd->callback([opt] {
     const Format format = check_report_options(opt->report);
-    const config::Season full = load_season_file(opt->file);
+    config::Season full = load_season_file(opt->file);
+    apply_model_options(opt->model, full);
     const config::DayNumber as_of = resolve_as_of(full, opt->as_of);
     const config::Season season = config::season_as_of(full, as_of);
     check_output_target(opt->report.output, full.input_files);

@@ -36,6 +36,7 @@ struct RunFlags {
   std::uint64_t seed = DEFAULT_SEED;
   int threads = 0;
   std::string history;
+  ModelOptions model;
 };
 
 void add_run_flags(CLI::App* cmd, RunFlags& f) {
@@ -47,6 +48,7 @@ void add_run_flags(CLI::App* cmd, RunFlags& f) {
   cmd->add_option("--history", f.history,
                   "History file (SQLite; default $XDG_DATA_HOME/standfast/history.sqlite or "
                   "~/.local/share/standfast/history.sqlite)");
+  add_model_options(*cmd, f.model);
 }
 
 engine::RunOptions run_options(const RunFlags& f, std::uint64_t seasons) {
@@ -75,6 +77,7 @@ config::Season load(const RunFlags& f, const std::vector<std::string>& outputs) 
   inputs.push_back(history_path(f).string());
   for (const std::string& out : outputs) check_output_target(out, inputs);
   print_warnings(season);
+  apply_model_options(f.model, season);
   return season;
 }
 

@@ -51,6 +51,7 @@ struct OddsOptions {
   double target_se = 0.0;
   int threads = 0;
   ReportOptions report;
+  ModelOptions model;
   std::string group;
   std::string as_of;
   bool record = false;
@@ -65,9 +66,10 @@ void run_odds(const OddsOptions& opt) {
   // In an MPI run every rank does the same work up to the simulation, plays its share of the
   // seasons, and rank 0 alone prints warnings, progress and the report.
   const bool lead = process_rank() == 0;
-  const config::Season season = config::load_season(opt.season_file);
+  config::Season season = config::load_season(opt.season_file);
   check_output_target(opt.report.output, season.input_files);
   if (lead) print_warnings(season);
+  apply_model_options(opt.model, season);
   // --group: a conference or division id, in any case; the nearest id is suggested otherwise.
   std::string group;
   if (!opt.group.empty()) {
@@ -151,6 +153,7 @@ void add_odds_command(CLI::App& app) {
          help_text(fmt::format("Worker threads, 0 to {}; 0 uses every core", MAX_THREADS), "0"))
       ->check(whole_number(0, MAX_THREADS));
   add_report_options(*cmd, opt->report);
+  add_model_options(*cmd, opt->model);
   cmd->add_option("--group", opt->group,
                   help_text("Only the teams of this conference or division (its id in the "
                             "season file)",

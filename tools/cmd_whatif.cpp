@@ -34,6 +34,7 @@ struct WhatifOptions {
   int threads = 0;
   std::string format = "table";
   std::string output;
+  ModelOptions model;
 };
 
 void run_whatif(const WhatifOptions& opt) {
@@ -43,11 +44,12 @@ void run_whatif(const WhatifOptions& opt) {
   if (opt.threads < 0)
     throw UsageError(fmt::format("--threads: expected 0 (all cores) or more, got {}", opt.threads));
 
-  const config::Season season = config::load_season(opt.season_file);
+  config::Season season = config::load_season(opt.season_file);
   std::vector<std::string> inputs = season.input_files;
   inputs.push_back(opt.scenario_file);
   check_output_target(opt.output, inputs);
   print_warnings(season);
+  apply_model_options(opt.model, season);
   const config::ScenarioSet set = config::load_scenarios(opt.scenario_file, season);
   if (set.scenarios.empty())
     throw UsageError(fmt::format("{}: the file lists no scenario", opt.scenario_file));
@@ -135,6 +137,7 @@ void add_whatif_command(CLI::App& app) {
   cmd->add_option("--format", opt->format, "Output format: table, csv or json (default table)");
   cmd->add_option("-o,--output", opt->output,
                   "Write to this file (whole or not at all) instead of standard output");
+  add_model_options(*cmd, opt->model);
   cmd->callback([opt] { run_whatif(*opt); });
 }
 
