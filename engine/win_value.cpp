@@ -171,6 +171,7 @@ void play_season(ThreadState& st, const SeasonStreams& streams, int span) {
       p.wins_sq += static_cast<std::uint64_t>(o.wins) * static_cast<std::uint64_t>(o.wins);
       if (j > 0 && tv.points[j - 1].reachable) add_joint(tv.steps[j - 1], st.outcomes[j - 1], o);
     }
+    if (span == 0) continue;
     const auto minus = static_cast<std::size_t>(span - 1),
                plus = static_cast<std::size_t>(span + 1);
     if (tv.points[minus].reachable && tv.points[plus].reachable)
@@ -191,8 +192,8 @@ double shift_for_wins(const Plan& plan, int team, double wins) {
 }
 
 WinValueResult win_value(const Plan& plan, const RunOptions& options, int span) {
-  if (span < 1 || span > 20)
-    throw std::invalid_argument("win value: span must be 1 to 20, got " + std::to_string(span));
+  if (span < 0 || span > 20)
+    throw std::invalid_argument("win value: span must be 0 to 20, got " + std::to_string(span));
   if (options.threads < 0)
     throw std::invalid_argument("win value: threads must be >= 0, got " +
                                 std::to_string(options.threads));
@@ -302,6 +303,7 @@ PairedChance joint_change(const WinPoint& a, const WinPoint& b, const JointCount
 
 Estimate marginal_value(const TeamWinValue& t, int chance, std::uint64_t n) {
   const std::size_t span = t.points.size() / 2;
+  if (span == 0) return Estimate{std::numeric_limits<double>::quiet_NaN(), 0};
   const PairedChance c =
       joint_change(t.points[span - 1], t.points[span + 1], t.marginal, chance, n);
   if (!t.points[span - 1].reachable || !t.points[span + 1].reachable)

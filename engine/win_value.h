@@ -66,8 +66,8 @@ double shift_for_wins(const Plan& plan, int team, double wins);
 double expected_remaining_wins(const Plan& plan, int team, double shift);
 
 // Runs options.seasons seasons (target_se, rank and ranks are not used; the result does not
-// depend on options.threads). span: 1 to 20. Throws std::invalid_argument for bad options or a
-// plan with scenario edits.
+// depend on options.threads). span: 0 to 20 (0: the baseline only). Throws std::invalid_argument
+// for bad options or a plan with scenario edits.
 WinValueResult win_value(const Plan& plan, const RunOptions& options, int span = 5);
 
 // Figures from the counts (n seasons).
@@ -81,7 +81,8 @@ Estimate point_estimate(const WinPoint& p, int chance, std::uint64_t n);
 // chance WIN_VALUE_CHANCES = mean final wins.
 PairedChance joint_change(const WinPoint& a, const WinPoint& b, const JointCounts& j, int chance,
                           std::uint64_t n);
-// The marginal value of one win: (b - a) / 2 over points -1 and +1, its paired error halved.
+// The marginal value of one win: (b - a) / 2 over points -1 and +1, its paired error halved;
+// NaN when either point is not reachable or the span is 0.
 Estimate marginal_value(const TeamWinValue& t, int chance, std::uint64_t n);
 
 }  // namespace standfast::engine

@@ -235,7 +235,7 @@ TEST_CASE("bad options are refused") {
   const Plan plan = compile_plan(s, neutral_ratings(s));
   RunOptions opt;
   opt.seasons = 10;
-  CHECK_THROWS_AS(win_value(plan, opt, 0), std::invalid_argument);
+  CHECK_THROWS_AS(win_value(plan, opt, -1), std::invalid_argument);
   CHECK_THROWS_AS(win_value(plan, opt, 21), std::invalid_argument);
   CHECK_THROWS_AS(shift_for_wins(plan, 4, 1), std::invalid_argument);
   opt.threads = -1;

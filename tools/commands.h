@@ -23,6 +23,7 @@ void add_backtest_command(CLI::App& app);   // calibration of the odds against o
 // replay, movers and report: the odds history and the report page (tools/cmd_history.cpp)
 void add_history_commands(CLI::App& app);
 void add_whatif_command(CLI::App& app);  // scenarios against the season, paired
+void add_worth_command(CLI::App& app);   // the value of a win, team by team
 
 }  // namespace standfast::tools
 
