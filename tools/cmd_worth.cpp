@@ -75,6 +75,7 @@ void run_worth(const WorthOptions& opt) {
   report.result = engine::win_value(plan, run, opt.by_wins ? 0 : opt.span);
   bar.finish();
   report.by_wins = opt.by_wins;
+  report.postseason = plan.postseason;
   report.league = full.league.name;
   report.season_label = full.league.season_label;
   report.run = make_provenance(full);

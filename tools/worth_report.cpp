@@ -167,7 +167,8 @@ std::vector<std::size_t> worth_order(const WorthReport& r) {
   std::iota(order.begin(), order.end(), std::size_t{0});
   std::vector<double> key(order.size());
   for (std::size_t t = 0; t < order.size(); ++t) {
-    const double v = engine::marginal_value(r.result.teams[t], 1, r.result.seasons).value;
+    const double v =
+        engine::marginal_value(r.result.teams[t], r.postseason ? 1 : 0, r.result.seasons).value;
     key[t] = std::isnan(v) ? -1.0 : v;
   }
   std::stable_sort(order.begin(), order.end(),

@@ -23,11 +23,13 @@ struct WorthReport {
   std::vector<std::string> team_ids, team_names;
   std::vector<int> wins, losses, games_left;  // the record so far, per team
   engine::WinValueResult result;
-  bool by_wins = false;  // the chances by final win total instead of the curves
+  bool by_wins = false;    // the chances by final win total instead of the curves
+  bool postseason = true;  // the league has a postseason (else teams sort by the division)
 };
 
-// Teams by the value of one more win to their postseason chance, largest first (equal values
-// and teams without one in league order).
+// Teams by the value of one more win to their postseason chance (to their division chance in
+// a league without a postseason), largest first (equal values and teams without one in league
+// order).
 std::vector<std::size_t> worth_order(const WorthReport& report);
 
 // The smallest final win total from which every total seen in at least `min_seasons` seasons
