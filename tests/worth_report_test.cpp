@@ -172,3 +172,14 @@ TEST_CASE("worth --help shows the common options in the one style") {
   CHECK(help.out.find("(default: 5)") != std::string::npos);
   CHECK(help.out.find("--by-wins") != std::string::npos);
 }
+
+TEST_CASE("worth runs under another family and records it") {
+  const auto j = run_process(PROGRAM + " worth " + SMALL +
+                             " --seasons 200 --span 1 --family poisson --format json");
+  REQUIRE(j.status == 0);
+  const auto doc = nlohmann::json::parse(j.out);
+  CHECK(doc["run"]["family"] == "poisson");
+  CHECK(doc["shift_unit"] == "runs_per_game");
+  // log5 needs a win_pct override for every team: refused with status 2.
+  CHECK(run("worth " + SMALL + " --seasons 200 --family log5").status == 2);
+}

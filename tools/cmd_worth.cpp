@@ -41,14 +41,16 @@ struct WorthOptions {
   int span = DEFAULT_SPAN;
   bool by_wins = false;
   std::string as_of;
+  ModelOptions model;
   ReportOptions report;
 };
 
 void run_worth(const WorthOptions& opt) {
   const Format format = check_report_options(opt.report);
-  const config::Season full = config::load_season(opt.season_file);
+  config::Season full = config::load_season(opt.season_file);
   check_output_target(opt.report.output, full.input_files);
   print_warnings(full);
+  apply_model_options(opt.model, full);
   const config::DayNumber as_of = resolve_as_of(full, opt.as_of);
   const config::Season season = config::season_as_of(full, as_of);
 
@@ -140,6 +142,7 @@ void add_worth_command(CLI::App& app) {
   cmd->add_option("--as-of", opt->as_of,
                   "As-of date YYYY-MM-DD, the morning before its games: games on or after it "
                   "count as not yet played (default: the day after the last played game)");
+  add_model_options(*cmd, opt->model);
   add_report_options(*cmd, opt->report);
   cmd->callback([opt] { run_worth(*opt); });
 }
