@@ -4,6 +4,8 @@
 #include <cmath>
 #include <stdexcept>
 
+#include "engine/tiebreak.h"
+
 namespace standfast::engine {
 
 ShiftReplay::ShiftReplay(const Plan& plan, bool postseason)
@@ -34,6 +36,27 @@ ShiftReplay::ShiftReplay(const Plan& plan, bool postseason)
     team_games_[plan.away_team[g]].games.push_back(static_cast<std::uint32_t>(g));
   }
   for (const TeamGames& tg : team_games_) most = std::max(most, tg.games.size());
+  // The short cut of out_of_it: the seeding takes the best division winners of a conference
+  // and then the best of the rest (engine/seeding.cpp), so a team that does not win its
+  // division and trails at least (division-winner berths + at-large berths) teams of its
+  // conference has no berth whatever the tiebreakers. Only for conference brackets (or no
+  // postseason); -1 elsewhere.
+  conference_mates_.resize(n);
+  quota_.assign(n, -1);
+  const bool by_conference = std::all_of(plan.brackets.begin(), plan.brackets.end(),
+                                         [](const PlanBracket& b) { return b.conference >= 0; });
+  for (std::size_t t = 0; t < n; ++t) {
+    for (std::size_t u = 0; u < n; ++u)
+      if (u != t && plan.team_conference[u] == plan.team_conference[t])
+        conference_mates_[t].push_back(static_cast<int>(u));
+    if (!plan.postseason) {
+      quota_[t] = 0;
+    } else if (by_conference) {
+      for (const PlanBracket& b : plan.brackets)
+        if (b.conference == plan.team_conference[t])
+          quota_[t] = std::max(b.division_winners, 0) + std::max(b.at_large, 0);
+    }
+  }
   saved_won_.resize(most);
   ties_.resize(most);
   base_.resize(n);
@@ -54,6 +77,23 @@ void ShiftReplay::baseline(const SeasonStreams& streams) {
 
 TeamOutcome ShiftReplay::baseline_outcome(int team) const {
   return base_[static_cast<std::size_t>(team)];
+}
+
+bool ShiftReplay::out_of_it(int team) const {
+  const auto t = static_cast<std::size_t>(team);
+  const int quota = quota_[t];
+  if (quota < 0) return false;
+  const SeasonRecord& r = w_.record;
+  const int wins = r.wins(team), losses = r.losses(team);
+  const int division = plan_.team_division[t];
+  bool division_lost = false;
+  int ahead = 0;
+  for (int u : conference_mates_[t]) {
+    if (compare_pct(r.wins(u), r.losses(u), wins, losses) <= 0) continue;
+    ++ahead;
+    division_lost |= plan_.team_division[static_cast<std::size_t>(u)] == division;
+  }
+  return division_lost && ahead >= quota;
 }
 
 TeamOutcome ShiftReplay::outcome_of(int team) const {
@@ -151,8 +191,14 @@ TeamOutcome ShiftReplay::shifted(int team, double shift) {
   }
   w_.record = base_record_;
   w_.totals.update(w_.record, tg.matchups, saved_word_);
-  runner_.settle(streams_, w_, /*add_tally=*/false, team);
-  const TeamOutcome out = outcome_of(team);
+  TeamOutcome out;
+  if (out_of_it(team)) {
+    out.wins = w_.record.wins(team);
+    ++decided_by_record_;
+  } else {
+    runner_.settle(streams_, w_, /*add_tally=*/false, team);
+    out = outcome_of(team);
+  }
   // Back to the baseline.
   for (std::size_t i = 0; i < tg.games.size(); ++i) sink.home_won[tg.games[i]] = saved_won_[i];
   for (std::size_t j = 0; j < tg.matchups.size(); ++j) {

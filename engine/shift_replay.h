@@ -49,6 +49,8 @@ class ShiftReplay {
   TeamOutcome shifted(int team, double shift);
 
   const Plan& plan() const { return plan_; }
+  // How many shifted seasons were decided by the team's record alone (out_of_it), for tests.
+  std::uint64_t decided_by_record() const { return decided_by_record_; }
 
  private:
   struct TeamGames {
@@ -58,6 +60,11 @@ class ShiftReplay {
   };
 
   TeamOutcome outcome_of(int team) const;
+  // True when the team's record alone rules out the division and a berth: a team of its
+  // division has a strictly better winning percentage, and at least `quota_` teams of its
+  // conference do (the conference's division-winner and at-large berths together). The
+  // standings and the postseason are then not settled again: the team's outcome is known.
+  bool out_of_it(int team) const;
 
   const Plan& plan_;
   detail::SeasonRunner runner_;
@@ -66,6 +73,9 @@ class ShiftReplay {
   int draws_per_game_ = 1;
   std::vector<std::uint64_t> bits_;  // the games stream of the season: per game, then the key
   std::vector<TeamGames> team_games_;
+  std::vector<std::vector<int>> conference_mates_;  // per team: the other teams of its conference
+  std::uint64_t decided_by_record_ = 0;
+  std::vector<int> quota_;         // per team: berths of its conference; -1: no short cut
   std::vector<TeamOutcome> base_;  // per team
   SeasonRecord base_record_;       // the baseline's record before the ranking
   // Saved while a team is replayed.

@@ -38,8 +38,9 @@ TeamOutcome outcome(const detail::Worker& w, int team) {
 }
 
 // Every season of `seasons`, for each (team, shift): the replay equals the full season loop.
+// `by_record`: some shifted seasons are decided by the team's record alone (conference brackets).
 void check_equal(const config::Season& season, const std::vector<int>& teams,
-                 const std::vector<double>& shifts, std::uint64_t seasons) {
+                 const std::vector<double>& shifts, std::uint64_t seasons, bool by_record = false) {
   const models::LeagueRatings ratings = models::fit_ratings(season);
   const Plan plan = compile_plan(season, ratings);
   ShiftReplay replay(plan, true);
@@ -71,7 +72,8 @@ void check_equal(const config::Season& season, const std::vector<int>& teams,
     }
   }
   CHECK(differ == 0);
-  CHECK(moved > 0);  // the shifts do change seasons
+  CHECK(moved > 0);                                      // the shifts do change seasons
+  if (by_record) CHECK(replay.decided_by_record() > 0);  // the short cut was taken
 }
 
 }  // namespace
@@ -79,7 +81,11 @@ void check_equal(const config::Season& season, const std::vector<int>& teams,
 TEST_CASE("a replayed shift equals the full season loop with an added-runs override") {
   const config::Season demo =
       config::load_season(STANDFAST_SOURCE_DIR "/scenarios/demo/season.yaml");
-  check_equal(demo, {0, 5, 17, 31}, {-1.3, -0.25, 0.4, 2.0}, 15);
+  check_equal(demo, {0, 5, 17, 22, 26, 31}, {-1.3, -0.25, 0.4, 2.0}, 15, true);
+  // Without a postseason the record decides the division alone.
+  config::Season regular = demo;
+  regular.postseason.enabled = false;
+  check_equal(regular, {3, 9}, {-0.5, 0.7}, 10, true);
 }
 
 TEST_CASE("the replay equals the season loop under the count families too") {
