@@ -1,9 +1,10 @@
 // One simulated season, step by step: the season's true strengths, the remaining games, the
 // standings and tiebreakers, the postseason and the tally. SeasonRunner plays a season of a
 // Plan into a Worker (per-thread scratch space and integer tallies, no random state); the
-// parallel run (engine/simulate.h) and the paired comparison of plans (engine/compare.h) drive
-// it. After run(), the Worker holds the season's outcome (record, seeds, division winners,
-// byes, rounds reached, champion) until the next run.
+// parallel run (engine/simulate.h), the paired comparison of plans (engine/compare.h) and the
+// replay of one team's shifted season (engine/shift_replay.h) drive it. After run(), the
+// Worker holds the season's outcome (record, seeds, division winners, byes, rounds reached,
+// champion) until the next run.
 #ifndef STANDFAST_ENGINE_SEASON_RUNNER_H
 #define STANDFAST_ENGINE_SEASON_RUNNER_H
 
@@ -91,7 +92,7 @@ class SeasonRunner {
   }
 
   // The steps of run(), public for engines that replay part of a season on the same streams
-  // (engine/win_value.h).
+  // (engine/shift_replay.h).
   //
   // The season's true strengths, into w.off, w.def and w.odds (every slot).
   void draw(const SeasonStreams& streams, Worker& w) const {
