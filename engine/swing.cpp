@@ -144,4 +144,44 @@ SwingResult simulate_swings(const Plan& plan, std::span<const std::uint32_t> gam
   return out;
 }
 
+std::vector<std::uint32_t> games_of_team(const Plan& plan, int team) {
+  std::vector<std::uint32_t> out;
+  for (std::size_t g = 0; g < plan.remaining_games(); ++g)
+    if (plan.home_team[g] == team || plan.away_team[g] == team)
+      out.push_back(static_cast<std::uint32_t>(g));
+  return out;
+}
+
+std::vector<std::uint32_t> games_of_days(const Plan& plan, config::DayNumber first, int days) {
+  std::vector<std::uint32_t> out;
+  const auto last = static_cast<std::int64_t>(first) + days;  // exclusive
+  for (std::size_t g = 0; g < plan.remaining_games(); ++g) {
+    const config::DayNumber d = plan.day[g];
+    if (d >= first && static_cast<std::int64_t>(d) < last)
+      out.push_back(static_cast<std::uint32_t>(g));
+  }
+  return out;
+}
+
+TeamStake for_team(const ConditionalChance& home_view, bool team_is_home) {
+  TeamStake t;
+  t.if_wins = team_is_home ? home_view.if_home_wins : home_view.if_away_wins;
+  t.if_loses = team_is_home ? home_view.if_away_wins : home_view.if_home_wins;
+  t.difference = t.if_wins - t.if_loses;
+  t.se = home_view.se;
+  return t;
+}
+
+SwingTotal total_swing(std::span<const ConditionalChance> teams) {
+  SwingTotal t;
+  double abs_sum = 0, se_sum = 0;
+  for (const ConditionalChance& c : teams) {
+    abs_sum += std::abs(c.swing);
+    se_sum += c.se;
+  }
+  t.moved = abs_sum / 2;
+  t.noise = std::sqrt(2.0 / std::acos(-1.0)) * se_sum / 2;
+  return t;
+}
+
 }  // namespace standfast::engine

@@ -24,6 +24,7 @@ void add_backtest_command(CLI::App& app);   // calibration of the odds against o
 void add_history_commands(CLI::App& app);
 void add_whatif_command(CLI::App& app);  // scenarios against the season, paired
 void add_worth_command(CLI::App& app);   // the value of a win, team by team
+void add_stakes_command(CLI::App& app);  // the games that matter, from one run's seasons
 
 }  // namespace standfast::tools
 
