@@ -278,8 +278,8 @@ TEST_CASE("the program: every run records the family and shape --family and --sh
     CHECK((r.out.find("--family") != std::string::npos ||
            r.out.find("--shape") != std::string::npos));
   }
-  for (const char* command :
-       {"fit", "odds", "whatif", "replay", "movers", "report", "backtest", "worth", "stakes"}) {
+  for (const char* command : {"fit", "odds", "whatif", "replay", "movers", "report", "backtest",
+                              "worth", "stakes", "families"}) {
     INFO(command);
     const auto help = run_process(PROGRAM + " " + command + " --help");
     CHECK(help.status == 0);

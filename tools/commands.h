@@ -22,9 +22,10 @@ void add_odds_command(CLI::App& app);       // the main job: simulated postseaso
 void add_backtest_command(CLI::App& app);   // calibration of the odds against outcomes
 // replay, movers and report: the odds history and the report page (tools/cmd_history.cpp)
 void add_history_commands(CLI::App& app);
-void add_whatif_command(CLI::App& app);  // scenarios against the season, paired
-void add_worth_command(CLI::App& app);   // the value of a win, team by team
-void add_stakes_command(CLI::App& app);  // the games that matter, from one run's seasons
+void add_whatif_command(CLI::App& app);    // scenarios against the season, paired
+void add_worth_command(CLI::App& app);     // the value of a win, team by team
+void add_stakes_command(CLI::App& app);    // the games that matter, from one run's seasons
+void add_families_command(CLI::App& app);  // model sensitivity: every scoring family, paired
 
 }  // namespace standfast::tools
 

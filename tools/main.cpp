@@ -34,6 +34,7 @@ int main(int argc, char** argv) {
   tools::add_whatif_command(app);
   tools::add_worth_command(app);
   tools::add_stakes_command(app);
+  tools::add_families_command(app);
   // A first word that is neither an option nor a command: name it (CLI11 would only say that a
   // command is required).
   if (argc > 1 && argv[1][0] != '-') {
