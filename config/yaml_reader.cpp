@@ -326,7 +326,13 @@ SourcePos read_model(YamlContext& ctx, const YAML::Node& node, ModelSpec& model,
     model.home_edge = fit_or_number(ctx, *n, m.sub("home_edge"), MIN_HOME_EDGE, MAX_HOME_EDGE, bad);
   }
   if (auto n = m.get("shrink_games")) {
-    model.shrink_games = ctx.real_in(*n, m.sub("shrink_games"), 0.0, true, 1e6).value_or(20.0);
+    if (n->IsScalar() && n->Scalar() == "auto") {
+      model.shrink_auto = true;
+    } else if (n->IsScalar() && parse_real(n->Scalar())) {
+      model.shrink_games = ctx.real_in(*n, m.sub("shrink_games"), 0.0, true, 1e6).value_or(20.0);
+    } else {
+      ctx.error(*n, m.sub("shrink_games") + ": must be `auto` or a number, got " + describe(*n));
+    }
   }
   if (auto n = m.get("lopsided")) {
     MapView l(ctx, *n, m.sub("lopsided"), {"margin", "weight"});

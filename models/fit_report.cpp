@@ -11,10 +11,8 @@
 #include "models/pythagorean.h"
 
 namespace standfast::models {
-namespace {
 
-// Empirical Bayes (method of moments): var(estimates) = tau^2 + mean(se^2).
-std::optional<double> suggested_shrink(const JointFit& f, double info) {
+std::optional<double> empirical_bayes_shrink(const JointFit& f, double info) {
   const int n = f.teams;
   double ss = 0.0, se2 = 0.0;
   for (int i = 0; i < n; ++i) {
@@ -27,7 +25,10 @@ std::optional<double> suggested_shrink(const JointFit& f, double info) {
   return 1.0 / (info * tau2);
 }
 
-}  // namespace
+double auto_shrink_games(const JointFit& mle, double info_per_side) {
+  const std::optional<double> k = empirical_bayes_shrink(mle, info_per_side);
+  return std::clamp(k.value_or(AUTO_SHRINK_MAX), AUTO_SHRINK_MIN, AUTO_SHRINK_MAX);
+}
 
 FitReport fit_report(const config::Season& season, double family_alpha) {
   if (!(family_alpha > 0.0 && family_alpha < 1.0)) {
@@ -38,11 +39,12 @@ FitReport fit_report(const config::Season& season, double family_alpha) {
   FitReport rep;
   rep.family = season.model.family;
   rep.family_alpha = family_alpha;
-  rep.shrink_games = season.model.shrink_games;
+  rep.shrink_auto = season.model.shrink_auto;
   RatingsFit rf = fit_ratings_detail(season);
   const std::vector<Side>& sides = rf.sides;
   if (sides.empty()) throw std::domain_error("fit_report: no played game to fit");
   rep.ratings = rf.ratings;
+  rep.shrink_games = rf.shrink_games;
   rep.games_fitted = rf.ratings.games_fitted;
   rep.info_per_side = rf.info_per_side;
 
@@ -52,7 +54,7 @@ FitReport fit_report(const config::Season& season, double family_alpha) {
                         : season.model.family;
   JointOptions base;
   base.home_edge = season.model.home_edge;
-  base.prior_precision = season.model.shrink_games > 0.0 ? 1e-9 : 0.0;
+  base.prior_precision = rf.shrink_games > 0.0 ? 1e-9 : 0.0;
   const auto shape_for = [&](config::ScoreFamily f) -> std::optional<double> {
     return f == season.model.family && f != config::ScoreFamily::kPoisson ? season.model.shape
                                                                           : std::nullopt;
@@ -86,7 +88,7 @@ FitReport fit_report(const config::Season& season, double family_alpha) {
   const JointFit& mle = *rep.mle;
   if (!rf.mle)
     rep.info_per_side = information_per_side(rep.test_family, std::exp(mle.log_mean), mle.shape);
-  rep.suggested_shrink_games = suggested_shrink(mle, rep.info_per_side);
+  rep.suggested_shrink_games = empirical_bayes_shrink(mle, rep.info_per_side);
 
   // Plain fit (the league shape fixed when the season file fixes the Weibull shape).
   const std::optional<double> plain_fixed =

@@ -24,11 +24,25 @@ struct RatingsFit {
   std::optional<JointFit> shrunk;  // with the shrinkage prior (empty when shrink_games is 0)
   double info_per_side = 0.0;      // Fisher information about log(mean) of one average score
   double prior_precision = 0.0;    // shrink_games * info_per_side
+  double shrink_games = 0.0;       // the prior weight used, in games (estimated when auto)
   std::vector<Side> sides;
 };
 
 // fit_ratings with its intermediate fits.
 RatingsFit fit_ratings_detail(const config::Season& season);
+
+// Empirical-Bayes prior weight, in games, from a maximum-likelihood fit (method of moments,
+// Efron and Morris 1975, JASA 70(350)): the spread of the estimated log ratings is the spread of
+// the true ones plus the estimation noise, var(estimates) = tau^2 + mean(SE^2), and a normal
+// prior of variance tau^2 is worth 1 / (I tau^2) games when one score carries information I
+// about a log rating. Empty when tau^2 comes out <= 0 (no spread beyond noise) or I <= 0.
+std::optional<double> empirical_bayes_shrink(const JointFit& mle, double info_per_side);
+
+// The weight `shrink_games: auto` uses: the estimate above kept within
+// [AUTO_SHRINK_MIN, AUTO_SHRINK_MAX] games (the upper end also when tau^2 <= 0: every team close
+// to the league), so a few games can never remove the prior or make it absolute.
+inline constexpr double AUTO_SHRINK_MIN = 5.0, AUTO_SHRINK_MAX = 500.0;
+double auto_shrink_games(const JointFit& mle, double info_per_side);
 
 struct TeamReport {
   int games = 0, wins = 0, losses = 0;
@@ -68,7 +82,8 @@ struct FitReport {
   std::optional<JointFit> mle;
   int games_fitted = 0;
   double plain_shape = 0.0, plain_shape_se = 0.0;
-  double shrink_games = 0.0;
+  double shrink_games = 0.0;  // the prior weight used (estimated from the data when auto)
+  bool shrink_auto = false;   // `shrink_games: auto`
   double info_per_side = 0.0;
   // Empirical-Bayes shrinkage strength from the maximum-likelihood ratings: 1 / (I tau^2) with
   // tau^2 = var(log ratings) - mean(se^2); empty when the spread is all noise.

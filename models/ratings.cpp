@@ -83,6 +83,7 @@ RatingsFit fit_ratings_detail(const config::Season& season) {
                   : 0.0;
     r.home_edge = spec.home_edge.value_or(1.0);
     if (spec.shrink_games > 0.0) {
+      out.shrink_games = r.shrink_games = spec.shrink_games;
       out.info_per_side = information_per_side(spec.family, r.league_mean, r.shape);
       out.prior_precision = spec.shrink_games * out.info_per_side;
       const double se = 1.0 / std::sqrt(out.prior_precision);
@@ -92,7 +93,7 @@ RatingsFit fit_ratings_detail(const config::Season& season) {
     }
     return out;
   }
-  if (spec.shrink_games == 0.0) {
+  if (spec.shrink_games == 0.0 && !spec.shrink_auto) {
     std::vector<int> sides_of(n, 0);
     for (const Side& s : out.sides) ++sides_of[s.batting];
     for (int i = 0; i < n; ++i) {
@@ -108,13 +109,15 @@ RatingsFit fit_ratings_detail(const config::Season& season) {
   o.shape = spec.family == config::ScoreFamily::kPoisson ? std::nullopt : spec.shape;
   o.home_edge = spec.home_edge;
   // The maximum-likelihood fit (a vanishing prior keeps a team without games defined).
-  o.prior_precision = spec.shrink_games > 0.0 ? 1e-9 : 0.0;
+  o.prior_precision = spec.shrink_games > 0.0 || spec.shrink_auto ? 1e-9 : 0.0;
   out.mle = fit_joint(out.sides, n, o);
   out.info_per_side =
       information_per_side(spec.family, std::exp(out.mle->log_mean), out.mle->shape);
-  if (spec.shrink_games > 0.0) {
+  out.shrink_games =
+      spec.shrink_auto ? auto_shrink_games(*out.mle, out.info_per_side) : spec.shrink_games;
+  if (out.shrink_games > 0.0) {
     // A prior worth `shrink_games` games of league-average scoring on each log rating.
-    out.prior_precision = spec.shrink_games * out.info_per_side;
+    out.prior_precision = out.shrink_games * out.info_per_side;
     o.prior_precision = out.prior_precision;
     o.start = &*out.mle;
     out.shrunk = fit_joint(out.sides, n, o);
@@ -123,6 +126,7 @@ RatingsFit fit_ratings_detail(const config::Season& season) {
   const int games = r.games_fitted;
   r = from_fit(used, spec.family);
   r.games_fitted = games;
+  r.shrink_games = out.shrink_games;
   return out;
 }
 

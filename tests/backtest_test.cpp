@@ -8,6 +8,7 @@
 #include <catch2/catch.hpp>
 #include <cmath>
 
+#include "models/fit_report.h"
 #include "tools/commands.h"
 
 using namespace standfast::tools;
@@ -56,4 +57,14 @@ TEST_CASE("a reduced backtest: league invariants, determinism, bad options") {
   o.at = 0.5;
   o.runs = 0;
   CHECK_THROWS_AS(run_backtest(o), UsageError);
+  o.runs = 6;
+  for (const char* bad : {"", "-1", "lots", "20x"}) {
+    o.shrink_games = bad;
+    CHECK_THROWS_AS(run_backtest(o), UsageError);
+  }
+  // The fixed weight is what the forecasts used; auto records the mean of its estimates.
+  o.shrink_games = "20";
+  CHECK(run_backtest(o).mean_shrink_games == 20.0);
+  CHECK(a.mean_shrink_games >= standfast::models::AUTO_SHRINK_MIN);
+  CHECK(a.mean_shrink_games <= standfast::models::AUTO_SHRINK_MAX);
 }

@@ -496,3 +496,12 @@ TEST_CASE("three conference brackets cannot end in one final") {
              Contains("t.yaml:5:13: postseason: the bracket cannot reduce to one "
                       "team: a field of 3 teams with 0 byes"));
 }
+
+TEST_CASE("shrink_games: a number of games or auto") {
+  CHECK(load_season_text(BASE + "model: {shrink_games: auto}\n", "t.yaml").model.shrink_auto);
+  const Season s = load_season_text(BASE + "model: {shrink_games: 12.5}\n", "t.yaml");
+  CHECK_FALSE(s.model.shrink_auto);
+  CHECK(s.model.shrink_games == 12.5);
+  CHECK(errors_of(BASE + "model: {shrink_games: sometimes}\n") ==
+        "t.yaml:14:23: model.shrink_games: must be `auto` or a number, got 'sometimes'");
+}

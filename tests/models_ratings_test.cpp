@@ -154,3 +154,51 @@ TEST_CASE("fit report: records, families and tests") {
   CHECK(rep.per_test_alpha == Approx(0.05 / n));
   CHECK(rep.plain_shape > 1.0);
 }
+
+TEST_CASE("empirical-Bayes shrinkage: the method-of-moments formula and shrink_games: auto") {
+  // A hand-made fit: 4 teams, log ratings summing to 0, every variance 0.0004.
+  JointFit f;
+  f.teams = 4;
+  f.log_offence = {0.2, -0.1, 0.0, -0.1};
+  f.log_defence = {0.1, 0.1, -0.1, -0.1};
+  f.variance.assign(static_cast<size_t>(f.dimension()), 0.0004);
+  // Ref: Efron and Morris (1975), JASA 70(350), method of moments: tau^2 = sum x^2 / (2 (n - 1))
+  // - mean(SE^2) = (0.06 + 0.04) / 6 - 0.0004 = 0.016267 (hand computation); weight 1 / (I tau^2)
+  // with I = 2: 30.7377.
+  CHECK(empirical_bayes_shrink(f, 2.0).value() == Approx(1.0 / (2.0 * (0.1 / 6.0 - 0.0004))));
+  CHECK(auto_shrink_games(f, 2.0) == Approx(30.7377).epsilon(1e-5));
+  // No spread beyond the noise: no estimate; auto takes the upper bound.
+  f.variance.assign(static_cast<size_t>(f.dimension()), 0.1);
+  CHECK_FALSE(empirical_bayes_shrink(f, 2.0).has_value());
+  CHECK(auto_shrink_games(f, 2.0) == AUTO_SHRINK_MAX);
+  // A huge spread: the lower bound.
+  f.variance.assign(static_cast<size_t>(f.dimension()), 0.0);
+  f.log_offence = {20, -10, 0, -10};
+  CHECK(auto_shrink_games(f, 2.0) == AUTO_SHRINK_MIN);
+
+  // On a league with known true spread (sd 0.1 on the log scale), `auto` fits with the weight
+  // 1 / (I tau^2) of the maximum-likelihood fit, and it is the fit of that fixed weight.
+  auto season = synthetic_season(league(12), 708);
+  season.model.shrink_auto = true;
+  const RatingsFit a = fit_ratings_detail(season);
+  REQUIRE(a.mle.has_value());
+  CHECK(a.shrink_games == Approx(auto_shrink_games(*a.mle, a.info_per_side)).epsilon(1e-12));
+  CHECK(a.ratings.shrink_games == a.shrink_games);
+  // Ref: closed form 1 / (I tau^2) at the true tau = 0.1, only as a sanity range: the estimate
+  // from 12 teams has a wide sampling spread (common practice: a factor of 3 either way).
+  const double truth = 1.0 / (a.info_per_side * 0.01);
+  CHECK(a.shrink_games > truth / 3.0);
+  CHECK(a.shrink_games < truth * 3.0);
+  season.model.shrink_auto = false;
+  season.model.shrink_games = a.shrink_games;
+  const LeagueRatings fixed = fit_ratings(season);
+  for (size_t i = 0; i < fixed.teams.size(); ++i) {
+    CHECK(fixed.teams[i].offence == Approx(a.ratings.teams[i].offence).epsilon(1e-9));
+    CHECK(fixed.teams[i].log_defence_se == Approx(a.ratings.teams[i].log_defence_se).epsilon(1e-9));
+  }
+  // Nothing played: auto falls back on shrink_games.
+  season.model.shrink_auto = true;
+  season.model.shrink_games = 20.0;
+  for (auto& g : season.games) g.played = false;
+  CHECK(fit_ratings(season).shrink_games == 20.0);
+}

@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdlib>
 #include <map>
 #include <nlohmann/json.hpp>
 #include <pcg_random.hpp>
@@ -32,7 +33,7 @@ constexpr int TEAMS = 16, GAMES_PER_TEAM = 56;
 constexpr double LEAGUE_MEAN = 4.5, HOME_EDGE = 1.03, SHAPE = 1.8, STRENGTH_SD = 0.10;
 constexpr double Z95 = 1.959963984540054;  // Phi^-1(0.975)
 
-std::string league_yaml() {
+std::string league_yaml(const std::string& shrink_games) {
   std::string s =
       "standfast: 1\n"
       "league: {name: Heronmere Backtest League, season: synthetic, innings: 9,\n"
@@ -56,7 +57,8 @@ std::string league_yaml() {
        "    - {name: Opening, best_of: 3}\n"
        "    - {name: Conference, best_of: 5}\n"
        "    - {name: Final, best_of: 7}\n"
-       "model: {family: weibull, shape: fit, home_edge: fit, shrink_games: 20}\n";
+       "model: {family: weibull, shape: fit, home_edge: fit, shrink_games: ";
+  s += shrink_games + "}\n";
   return s;
 }
 
@@ -210,7 +212,16 @@ BacktestResult run_backtest(const BacktestOptions& o) {
     throw UsageError(fmt::format("--at: expected a share of the games in (0, 1), got {}", o.at));
   if (o.threads < 0)
     throw UsageError(fmt::format("--threads: expected 0 (all cores) or more, got {}", o.threads));
-  const config::Season base = config::load_season_text(league_yaml(), "backtest-league.yaml");
+  if (o.shrink_games != "auto") {
+    char* end = nullptr;
+    const double k = std::strtod(o.shrink_games.c_str(), &end);
+    if (o.shrink_games.empty() || *end != '\0' || !(k >= 0.0 && k <= 1e6))
+      throw UsageError(fmt::format("--shrink-games: expected `auto` or a number of games from 0 "
+                                   "to 1000000, got {}",
+                                   o.shrink_games));
+  }
+  const config::Season base =
+      config::load_season_text(league_yaml(o.shrink_games), "backtest-league.yaml");
   BacktestResult res;
   {
     config::Season check = base;  // refuses options that cannot apply, before any work
@@ -220,6 +231,7 @@ BacktestResult run_backtest(const BacktestOptions& o) {
                         check.model.family == config::ScoreFamily::kNegativeBinomial;
     res.shape = !shaped ? "" : check.model.shape ? fmt::format("{:g}", *check.model.shape) : "fit";
   }
+  double shrink_sum = 0.0;
   const std::vector<double> zeros(TEAMS, 0.0);
   const models::LeagueRatings neutral = fixed_ratings(zeros, zeros, 1.0);
   std::vector<double> forecast[3], naive[3];
@@ -238,8 +250,9 @@ BacktestResult run_backtest(const BacktestOptions& o) {
       g.played = false;
       g.home_runs = g.away_runs = g.innings = 0;
     }
-    const engine::SimulationResult odds =
-        run(now, models::fit_ratings(now), o.seasons, mix(key + 1), o.threads);
+    const models::LeagueRatings fitted = models::fit_ratings(now);
+    shrink_sum += fitted.shrink_games;
+    const engine::SimulationResult odds = run(now, fitted, o.seasons, mix(key + 1), o.threads);
     // The real end: the generator's scores of the remaining games, then the postseason played
     // with the true strengths.
     const engine::SimulationResult end =
@@ -260,6 +273,7 @@ BacktestResult run_backtest(const BacktestOptions& o) {
   res.options = o;
   res.teams = TEAMS;
   res.games_per_team = GAMES_PER_TEAM;
+  res.mean_shrink_games = shrink_sum / o.runs;
   const char* names[3] = {"division", "postseason", "title"};
   for (int e = 0; e < 3; ++e) {
     EventScore s;
@@ -281,12 +295,15 @@ BacktestResult run_backtest(const BacktestOptions& o) {
 std::string write_backtest_table(const BacktestResult& r) {
   std::string s = fmt::format(
       "Calibration backtest: {} synthetic seasons of {} clubs ({} games each), odds after {:.0f}% "
-      "of the games from {} simulated seasons each, seed {}; forecast model {}{}\n{}\n",
+      "of the games from {} simulated seasons each, seed {}; forecast model {}{}\nShrinkage of "
+      "the forecasts' ratings: {} (mean {:.1f} games)\n{}\n",
       r.options.runs, r.teams, r.games_per_team, 100.0 * r.options.at,
       group_digits(r.options.seasons), r.options.seed, r.family,
       r.shape.empty() ? std::string()
                       : ", shape " + (r.shape == "fit" ? std::string("fitted") : r.shape),
-      ODDS_CAUTION);
+      r.options.shrink_games == "auto" ? "auto, estimated from each season's games"
+                                       : r.options.shrink_games + " games",
+      r.mean_shrink_games, ODDS_CAUTION);
   for (const EventScore& e : r.events) {
     s += fmt::format(
         "\n{}: Brier {:.4f}, naive forecast from the standings {:.4f}, skill {:+.3f}; {} "
@@ -330,6 +347,8 @@ std::string write_backtest_json(const BacktestResult& r) {
   j["seasons_per_forecast"] = r.options.seasons;
   j["at"] = r.options.at;
   j["seed"] = r.options.seed;
+  j["shrink_games"] = r.options.shrink_games;
+  j["mean_shrink_games"] = r.mean_shrink_games;
   j["teams"] = r.teams;
   j["games_per_team"] = r.games_per_team;
   j["forecast_model"] = {

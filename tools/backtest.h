@@ -21,6 +21,9 @@ struct BacktestOptions {
   std::uint64_t seed = 20260101;  // truth, schedule, scores and simulations all follow from it
   int threads = 0;
   ModelOptions model;  // the forecasts' model (the truth is always the Weibull generator's)
+  // The forecasts' model.shrink_games: "auto" (estimated from each season's played games, the
+  // default) or a number of games (e.g. "20", the season file's default).
+  std::string shrink_games = "auto";
 };
 
 struct ReliabilityBin {
@@ -46,6 +49,7 @@ struct BacktestResult {
   int teams = 0, games_per_team = 0;
   std::string family;  // the forecasts' scoring family
   std::string shape;   // its shape: "fit" (fitted in each synthetic season), a number, or empty
+  double mean_shrink_games = 0;  // the prior weight the forecasts used, averaged over the runs
   std::vector<EventScore> events;
 };
 

@@ -29,6 +29,8 @@ void add_backtest_command(CLI::App& app) {
                   "Share of each season's games played when the odds are made (default 0.5)");
   cmd->add_option("--seed", opt->run.seed, "Random seed (default 20260101)");
   cmd->add_option("--threads", opt->run.threads, "Worker threads (default 0 = all cores)");
+  cmd->add_option("--shrink-games", opt->run.shrink_games,
+                  "The forecasts' shrinkage: auto or a number of games (default auto)");
   cmd->add_option("--format", opt->format, "Output format: table, csv or json (default table)");
   cmd->add_option("-o,--output", opt->output,
                   "Write to this file (whole or not at all) instead of standard output");

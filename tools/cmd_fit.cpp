@@ -62,7 +62,8 @@ std::string render_table(const config::Season& s, const FitReport& r, const Prov
   }
   out += fmt::format("  Weibull shape gamma (plain fit)           {}\n",
                      with_se(r.plain_shape, r.plain_shape_se, 3));
-  out += fmt::format("  Shrinkage toward the league: {:g} games", r.shrink_games);
+  out += fmt::format("  Shrinkage toward the league: {:.4g} games{}", r.shrink_games,
+                     r.shrink_auto ? " (shrink_games: auto)" : "");
   out += r.suggested_shrink_games
              ? fmt::format(" (empirical-Bayes estimate from these games: {:.0f})\n",
                            *r.suggested_shrink_games)
@@ -162,6 +163,7 @@ std::string render_csv(const config::Season& s, const FitReport& r, const Proven
   row("league", "", "plain_shape", num(r.plain_shape));
   row("league", "", "plain_shape_se", num(r.plain_shape_se));
   row("league", "", "shrink_games", num(r.shrink_games));
+  row("league", "", "shrink_auto", r.shrink_auto ? "true" : "false");
   row("league", "", "suggested_shrink_games",
       r.suggested_shrink_games ? fmt::format("{:.1f}", *r.suggested_shrink_games) : "");
   row("league", "", "family_alpha", num(r.family_alpha));
@@ -237,6 +239,7 @@ std::string render_json(const config::Season& s, const FitReport& r, const Prove
                  {"plain_shape", number(r.plain_shape)},
                  {"plain_shape_se", number(r.plain_shape_se)},
                  {"shrink_games", r.shrink_games},
+                 {"shrink_auto", r.shrink_auto},
                  {"suggested_shrink_games",
                   r.suggested_shrink_games ? number(*r.suggested_shrink_games) : json(nullptr)},
                  {"log_lik", number(lr.log_lik)},

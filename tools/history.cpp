@@ -213,7 +213,7 @@ std::string model_label(const config::ModelSpec& m) {
   std::string label = family;
   label += m.shape ? fmt::format(" shape={}", *m.shape) : std::string(" shape=fit");
   label += m.home_edge ? fmt::format(" home_edge={}", *m.home_edge) : std::string(" home_edge=fit");
-  label += fmt::format(" shrink={}", m.shrink_games);
+  label += m.shrink_auto ? std::string(" shrink=auto") : fmt::format(" shrink={}", m.shrink_games);
   if (m.lopsided) label += fmt::format(" lopsided={}/{}", m.lopsided->margin, m.lopsided->weight);
   label += m.strength_uncertainty ? " uncertainty=on" : " uncertainty=off";
   return label;
