@@ -1,16 +1,12 @@
 #include "engine/simulate.h"
 
-#include <tbb/blocked_range.h>
-#include <tbb/enumerable_thread_specific.h>
-#include <tbb/global_control.h>
-#include <tbb/parallel_for.h>
-
 #include <algorithm>
 #include <cmath>
 #include <memory>
 #include <optional>
 #include <stdexcept>
 
+#include "engine/parallel.h"
 #include "engine/season_runner.h"
 #include "engine/streams.h"
 #include "engine/tally.h"
@@ -39,13 +35,8 @@ SimulationResult simulate(const Plan& plan, const RunOptions& options) {
       (options.ranks > 1 && !options.combine))
     throw std::invalid_argument("simulate: rank " + std::to_string(options.rank) + " of " +
                                 std::to_string(options.ranks) + " (several need combine)");
-  std::optional<tbb::global_control> control;
-  if (options.threads > 0)
-    control.emplace(tbb::global_control::max_allowed_parallelism,
-                    static_cast<std::size_t>(options.threads));
-
   const SeasonRunner runner(plan, options.postseason);
-  tbb::enumerable_thread_specific<Worker> workers([&] { return Worker(plan); });
+  PerThread<Worker> workers([&] { return Worker(plan); }, options.threads);
   Tally total(plan.teams, static_cast<int>(plan.rounds.size()), plan.max_games,
               std::max(plan.max_seed, 1));
 
@@ -58,21 +49,24 @@ SimulationResult simulate(const Plan& plan, const RunOptions& options) {
     const auto rank = static_cast<std::uint64_t>(options.rank);
     const std::uint64_t first = done + (end - done) * rank / ranks;
     const std::uint64_t last = done + (end - done) * (rank + 1) / ranks;
-    if (first < last)
-      tbb::parallel_for(
-          tbb::blocked_range<std::uint64_t>(first, last, GRAIN),
-          [&](const tbb::blocked_range<std::uint64_t>& range) {
-            Worker& w = workers.local();
-            SeasonStreams streams(options.seed, range.begin());
-            for (std::uint64_t s = range.begin(); s < range.end(); ++s) {
-              runner.run(streams, w);
-              streams.next();
-            }
-          },
-          tbb::simple_partitioner());
+    workers.for_each_chunk(first, last, GRAIN,
+                           [&](std::uint64_t from, std::uint64_t to, Worker& w) {
+                             SeasonStreams streams(options.seed, from);
+                             for (std::uint64_t s = from; s < to; ++s) {
+                               runner.run(streams, w);
+                               streams.next();
+                             }
+                           });
     done = end;
+    // The totals are needed between batches only for the early stop; without it they are added
+    // once, after the last batch (one all-reduce for an MPI run instead of one per batch, so the
+    // ranks never wait for each other before the end).
+    if (options.target_se <= 0 && done < options.seasons) {
+      if (options.progress) options.progress(done, options.seasons);
+      continue;
+    }
     total.clear();
-    for (const Worker& w : workers) total.merge(w.tally);
+    workers.for_each_worker([&](const Worker& w) { total.merge(w.tally); });
     if (options.ranks > 1) {
       std::vector<std::uint64_t> counts = total.counts();
       options.combine(counts);

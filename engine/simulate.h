@@ -25,8 +25,9 @@ struct RunOptions {
   std::function<void(std::uint64_t done, std::uint64_t total)> progress;
   // One run shared by several processes (MPI ranks): this process plays its share, rank of
   // ranks, of every batch, and `combine` replaces its integer counts (Tally::counts) by their
-  // sum over the processes (an all-reduce). Every process then holds the totals of a
-  // single-process run, and takes the same stop decision.
+  // sum over the processes (an all-reduce): after every batch when target_se is set, else once
+  // after the last. Every process then holds the totals of a single-process run, and takes the
+  // same stop decision.
   int rank = 0, ranks = 1;
   std::function<void(std::vector<std::uint64_t>& counts)> combine;
 };

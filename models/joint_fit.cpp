@@ -94,7 +94,15 @@ class Problem {
   double shape_of(const std::vector<double>& x) const {
     return l_.shape >= 0 ? std::exp(x[l_.shape]) : fixed_shape_;
   }
+  // The shape within its range, and every other parameter (log league mean, log home edge, log
+  // ratings) finite and within +-MAX_LOG: a trial step of the line search beyond that (a rating
+  // of e^10, 22,026 times the league) is refused like an uphill step, so the likelihood is
+  // never asked for an absurd mean (whose score sums would run for ever).
+  static constexpr double MAX_LOG = 10.0;
   bool in_bounds(const std::vector<double>& x) const {
+    for (int i = 0; i < static_cast<int>(x.size()); ++i) {
+      if (i != l_.shape && !(std::abs(x[i]) <= MAX_LOG)) return false;
+    }
     return l_.shape < 0 || (x[l_.shape] >= lo_ && x[l_.shape] <= hi_);
   }
 

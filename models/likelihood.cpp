@@ -4,6 +4,7 @@
 
 #include <boost/math/special_functions/gamma.hpp>
 #include <cmath>
+#include <limits>
 #include <stdexcept>
 
 namespace standfast::models {
@@ -107,6 +108,13 @@ const std::vector<double>& log_table() {
 
 MeanTerms weibull_mean_terms(double a, double g, bool second) {
   MeanTerms t{0.0, 0.0, 0.0};
+  // A scale that is not a finite positive number of sane size (the fits keep means within
+  // e^+-10 runs; a scale of 1e6 would need millions of terms): not a number, which the fits
+  // treat as a refused step.
+  if (!(a > 0.0 && a <= 1e6) || !(g > 0.0)) {
+    const double nan = std::numeric_limits<double>::quiet_NaN();
+    return MeanTerms{nan, nan, nan};
+  }
   const double log_a = std::log(a);
   const std::vector<double>& logk = log_table();
   double sum_et = 0.0, sum_ett = 0.0;
@@ -184,6 +192,10 @@ ScaleSolution solve_scale_direct(double mu, double g) {
   MeanTerms mt{};
   for (int iter = 0; iter < 50; ++iter) {
     mt = weibull_mean_terms(a, g, true);
+    if (!std::isfinite(mt.m)) {
+      const double nan = std::numeric_limits<double>::quiet_NaN();
+      return ScaleSolution{nan, nan, nan};
+    }
     double step = (mt.m - mu) / mt.dm;
     if (step > 0.5 * a) step = 0.5 * a;
     a -= step;

@@ -140,3 +140,16 @@ TEST_CASE("played sides reject bad data with the parameter and value") {
   CHECK_THROWS_WITH(played_sides(s), Catch::Contains("run_factor"));
   CHECK_THROWS(score_loglik(ScoreFamily::kLog5, 1, 1, 1));
 }
+
+TEST_CASE("an absurd or undefined mean gives a non-finite log-likelihood at once, never a hang") {
+  // Regression: a line-search trial with a mean of e^40 runs (or NaN) used to sum the
+  // discretised Weibull mean for ever and then read past a table (found by the backtest at 20%
+  // of the season). The fits now refuse such a step; the likelihood itself reports it.
+  for (double eta : {40.0, 700.0, std::nan("")}) {
+    const LogLikTerms t = score_loglik(ScoreFamily::kWeibull, 3.0, eta, 1.8);
+    CHECK_FALSE(std::isfinite(t.value));
+  }
+  // A sane mean, and a vanishing one (P(3) tiny but defined), stay finite.
+  CHECK(std::isfinite(score_loglik(ScoreFamily::kWeibull, 3.0, std::log(4.5), 1.8).value));
+  CHECK(std::isfinite(score_loglik(ScoreFamily::kWeibull, 3.0, -800.0, 1.8).value));
+}

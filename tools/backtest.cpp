@@ -11,6 +11,7 @@
 #include <tuple>
 
 #include "config/load.h"
+#include "engine/game.h"
 #include "engine/plan.h"
 #include "engine/simulate.h"
 #include "models/ratings.h"
@@ -109,6 +110,7 @@ config::Season synthetic_season(const config::Season& base, std::uint64_t seed, 
   for (std::size_t k = games.size(); k > 1; --k) std::swap(games[k - 1], games[rng(k)]);
   config::Season s = base;
   s.games.clear();
+  const engine::ExtraInnings extras(base.league.regulation_innings, base.league.extra_innings);
   std::map<std::tuple<int, int, int>, int> number;
   for (std::size_t g = 0; g < games.size(); ++g) {
     config::Game game;
@@ -122,11 +124,17 @@ config::Season synthetic_season(const config::Season& base, std::uint64_t seed, 
     game.home_runs = models::sample(models::weibull_for_mean(mh, SHAPE), rng);
     game.away_runs = models::sample(models::weibull_for_mean(ma, SHAPE), rng);
     game.innings = 9;
-    while (game.home_runs == game.away_runs) {  // a stand-in for extra innings
-      ++game.innings;
-      const double u = uniform01(rng);
-      if (u < 0.25) ++game.home_runs;
-      if (u >= 0.25 && u < 0.5) ++game.away_runs;
+    if (game.home_runs == game.away_runs) {
+      // Extra innings by the law the engine plays (engine/game.h), with the true means: the
+      // truth and the model then differ only in what the model must estimate.
+      engine::GameResult extra;
+      extras.play(rng, mh, ma, extra);
+      game.home_runs += extra.home_runs;
+      game.away_runs += extra.away_runs;
+      // Still tied after the engine's cap of extra innings (chance below 1e-25): the draw's
+      // winner gets the run.
+      if (game.home_runs == game.away_runs) ++(extra.home_won ? game.home_runs : game.away_runs);
+      game.innings = 10;
     }
     game.played = true;
     s.games.push_back(game);
