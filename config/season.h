@@ -124,9 +124,9 @@ struct LopsidedRule {
 
 struct ModelSpec {
   ScoreFamily family = ScoreFamily::kWeibull;
-  std::optional<double> shape;           // fixed Weibull shape gamma; empty = fitted
-  std::optional<double> home_edge;       // fixed multiplier on the home side's runs; empty = fitted
-  double shrink_games = 20.0;            // prior weight toward the league mean, in games
+  std::optional<double> shape;      // fixed Weibull shape gamma; empty = fitted
+  std::optional<double> home_edge;  // fixed multiplier on the home side's runs; empty = fitted
+  double shrink_games = 20.0;       // prior weight toward the league mean, in games
   // `shrink_games: auto`: the weight is estimated from the played games (empirical Bayes,
   // models/fit_report.h); shrink_games then applies only while no game is played.
   bool shrink_auto = false;

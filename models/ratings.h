@@ -42,10 +42,10 @@ struct LeagueRatings {
 
   // Standard errors of the league values (0 when fixed by the season file or not fitted).
   double league_mean_se = 0.0, shape_se = 0.0, home_edge_se = 0.0;
-  int games_fitted = 0;   // played games used by the fit
+  int games_fitted = 0;       // played games used by the fit
   double shrink_games = 0.0;  // prior weight used, in games (estimated under shrink_games: auto)
-  double log_lik = 0.0;   // log-likelihood at the estimate (without the shrinkage prior)
-  bool converged = true;  // the optimiser met its tolerance
+  double log_lik = 0.0;       // log-likelihood at the estimate (without the shrinkage prior)
+  bool converged = true;      // the optimiser met its tolerance
 
   // expected runs of `batting` against `fielding` at the venue of `home`
   double expected_runs(int batting, int fielding, double run_factor, bool batting_at_home) const;

@@ -224,9 +224,10 @@ BacktestResult run_backtest(const BacktestOptions& o) {
     char* end = nullptr;
     const double k = std::strtod(o.shrink_games.c_str(), &end);
     if (o.shrink_games.empty() || *end != '\0' || !(k >= 0.0 && k <= 1e6))
-      throw UsageError(fmt::format("--shrink-games: expected `auto` or a number of games from 0 "
-                                   "to 1000000, got {}",
-                                   o.shrink_games));
+      throw UsageError(
+          fmt::format("--shrink-games: expected `auto` or a number of games from 0 "
+                      "to 1000000, got {}",
+                      o.shrink_games));
   }
   const config::Season base =
       config::load_season_text(league_yaml(o.shrink_games), "backtest-league.yaml");

@@ -200,8 +200,8 @@ std::string summary_table(const Season& s, const Provenance& run) {
                      s.tiebreakers.extra_game ? "extra game for two-team ties, else " : "", order);
 
   const config::ModelSpec& m = s.model;
-  out += fmt::format("Model: {}; shape {}; home edge {}; shrink {}{}{}\n",
-                     family_name(m.family), m.shape ? fmt::format("{}", *m.shape) : "fitted",
+  out += fmt::format("Model: {}; shape {}; home edge {}; shrink {}{}{}\n", family_name(m.family),
+                     m.shape ? fmt::format("{}", *m.shape) : "fitted",
                      m.home_edge ? fmt::format("{}", *m.home_edge) : "fitted",
                      m.shrink_auto ? "estimated from the played games (auto)"
                                    : fmt::format("{} games", m.shrink_games),
