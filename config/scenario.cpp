@@ -154,6 +154,11 @@ class ScenarioReader {
     if (auto n = m.get("model")) {
       ModelSpec model = season_.model;
       detail::read_model(ctx_, *n, model, m.sub("model"));
+      // Another family is fitted afresh: the season's fixed shape belongs to its own family (a
+      // Weibull shape means nothing as a negative-binomial size), unless the scenario states one.
+      const YAML::Node& node = *n;
+      if (model.family != season_.model.family && node.IsMap() && !node["shape"])
+        model.shape.reset();
       if (model.family == ScoreFamily::kLog5 && season_.model.family != ScoreFamily::kLog5)
         ctx_.error(*n, m.sub("model.family") +
                            ": log5 needs a win_pct for every team; give it in the season file");

@@ -118,3 +118,23 @@ TEST_CASE("a scenario file that cannot be read is reported") {
   const Season s = season();
   CHECK_THROWS_AS(load_scenarios("/nonexistent/w.yaml", s), ConfigError);
 }
+
+TEST_CASE(
+    "a scenario that switches the family drops the season's fixed shape unless it states one") {
+  Season s = season();
+  s.model.shape = 1.83;  // a fixed Weibull shape in the season file
+  const ScenarioSet set = load_scenarios_text(R"(standfast_scenarios: 1
+scenarios:
+  - name: other family
+    model: {family: negative_binomial}
+  - name: other family and size
+    model: {family: negative_binomial, shape: 12}
+  - name: same family
+    model: {home_edge: 1.02}
+)",
+                                              "w.yaml", s);
+  REQUIRE(set.scenarios.size() == 3);
+  CHECK_FALSE(set.scenarios[0].model->shape.has_value());
+  CHECK(set.scenarios[1].model->shape == 12.0);
+  CHECK(set.scenarios[2].model->shape == 1.83);
+}
