@@ -124,7 +124,7 @@ TEST_CASE("standings marks and simulated chances agree on the late-season demo l
     for (const char* key : {"division_title", "postseason", "bye", "title"}) {
       const auto& c = t[key];
       const std::string status = c["status"].get<std::string>();
-      INFO(t["id"].get<std::string>() << " " << key);
+      INFO(t["team_id"].get<std::string>() << " " << key);
       if (status == "clinched") CHECK(c["p"].get<double>() == 1.0);
       if (status == "eliminated") CHECK(c["p"].get<double>() == 0.0);
       if (!status.empty()) ++marked;

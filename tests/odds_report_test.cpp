@@ -232,8 +232,8 @@ TEST_CASE("JSON carries the schema version, the run and every team field") {
   CHECK(run["rounds"] == nlohmann::json::array({"Semifinal", "Final"}));
   REQUIRE(doc["teams"].size() == 4);
   const auto& rtc = doc["teams"][3];
-  CHECK(rtc["id"] == "RTC");
-  CHECK(rtc["name"] == "Ridge, Tern & Co");
+  CHECK(rtc["team_id"] == "RTC");
+  CHECK(rtc["team_name"] == "Ridge, Tern & Co");
   CHECK(rtc["conference"] == "north");
   CHECK(rtc["division"] == "north-b");
   CHECK(rtc["record"]["wins"] == 12);

@@ -54,11 +54,11 @@ TEST_CASE("the table states the caution, the model and only the teams that chang
 
 TEST_CASE("CSV has a row per scenario, team and chance") {
   const std::string c = tools::write_scenario_csv(report());
-  CHECK(c.rfind("scenario,family,shape,team,chance,baseline,scenario_value,change,se_paired,"
-                "se_unpaired\n",
+  CHECK(c.rfind("scenario,family,shape,team_id,team_name,chance,baseline,scenario_value,change,"
+                "se_paired,se_unpaired,run_version,",
                 0) == 0);
-  CHECK(c.find("\"AAA, better\",poisson,0,AAA,postseason,0.400000,0.450000,0.050000,0.012145,"
-               "0.022079\n") != std::string::npos);
+  CHECK(c.find("\"AAA, better\",poisson,0,AAA,AAA,postseason,0.400000,0.450000,0.050000,0.012145,"
+               "0.022079,") != std::string::npos);
   std::size_t rows = 0;
   for (char ch : c) rows += ch == '\n';
   CHECK(rows == 1 + 2 * 2 * 5);

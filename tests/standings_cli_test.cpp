@@ -69,11 +69,11 @@ TEST_CASE("standings JSON agrees with a recount of the game list") {
       double prev_pct = 2.0;
       for (const auto& t : d.at("teams")) {
         ++teams;
-        const auto& e = expected.at(t.at("id").get<std::string>());
+        const auto& e = expected.at(t.at("team_id").get<std::string>());
         CHECK(t.at("wins") == e.wins);
         CHECK(t.at("losses") == e.losses);
-        CHECK(t.at("runs_for") == e.runs_for);
-        CHECK(t.at("runs_against") == e.runs_against);
+        CHECK(t.at("runs_scored") == e.runs_for);
+        CHECK(t.at("runs_allowed") == e.runs_against);
         // Ranked by winning percentage within the division.
         const double pct = t.at("win_pct").get<double>();
         CHECK(pct <= prev_pct);
@@ -142,10 +142,10 @@ TEST_CASE("standings carry the exact marks and the magic and elimination numbers
   for (const auto& c : doc.at("conferences")) {
     for (const auto& d : c.at("divisions")) {
       for (const auto& t : d.at("teams")) {
-        const int index = season.team_index(t.at("id").get<std::string>());
+        const int index = season.team_index(t.at("team_id").get<std::string>());
         REQUIRE(index >= 0);
         const auto& e = expect[static_cast<std::size_t>(index)];
-        INFO(t.at("id").get<std::string>());
+        INFO(t.at("team_id").get<std::string>());
         const auto& div = t.at("certainty").at("division");
         const auto& post = t.at("certainty").at("postseason");
         CHECK(div.at("status") == word(e.division.mark));

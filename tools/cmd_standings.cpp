@@ -133,8 +133,8 @@ std::string table(const Season& s, const Standings& st, const Certainties& cert,
 std::string csv(const Season& s, const Standings& st, const Certainties& cert,
                 const Provenance& run) {
   std::string out =
-      "conference,division,place,team_id,team,wins,losses,win_pct,games_back,runs_for,"
-      "runs_against,run_diff,home_wins,home_losses,road_wins,road_losses,division_wins,"
+      "conference,division,place,team_id,team_name,wins,losses,win_pct,games_back,runs_scored,"
+      "runs_allowed,run_differential,home_wins,home_losses,road_wins,road_losses,division_wins,"
       "division_losses,conference_wins,conference_losses,last10_wins,last10_losses,streak,seed,"
       "division_status,division_magic,division_elimination,postseason_status,postseason_magic,"
       "postseason_elimination" +
@@ -155,9 +155,9 @@ std::string csv(const Season& s, const Standings& st, const Certainties& cert,
             csv_field(team.name), l.wins, l.losses, pct_text(l), l.games_back_halves / 2.0,
             l.runs_for, l.runs_against, l.run_differential(), l.home_wins, l.home_losses,
             l.road_wins, l.road_losses, l.division_wins, l.division_losses, l.conference_wins,
-            l.conference_losses, l.last10_wins, l.last10_losses, l.streak, l.seed,
-            certainty_word(c.division.mark), number_field(c.division.magic),
-            number_field(c.division.elimination),
+            l.conference_losses, l.last10_wins, l.last10_losses, l.streak,
+            l.seed > 0 ? fmt::format("{}", l.seed) : std::string(), certainty_word(c.division.mark),
+            number_field(c.division.magic), number_field(c.division.elimination),
             s.postseason.enabled ? certainty_word(c.berth.mark) : "",
             s.postseason.enabled ? number_field(c.berth.magic) : "",
             s.postseason.enabled ? number_field(c.berth.elimination) : "", run_cells);
@@ -194,8 +194,10 @@ std::string json(const Season& s, const Standings& st, const Certainties& cert,
     c["name"] = conf.name;
     json seeds = json::array();
     for (std::size_t i = 0; i < cs.seeds.size(); ++i) {
+      const auto& team = s.teams[static_cast<std::size_t>(cs.seeds[i])];
       seeds.push_back({{"seed", i + 1},
-                       {"team", s.teams[static_cast<std::size_t>(cs.seeds[i])].id},
+                       {"team_id", team.id},
+                       {"team_name", team.name},
                        {"division_winner", static_cast<int>(i) < cs.qualifying_winners}});
     }
     c["postseason_field"] = seeds;
@@ -208,24 +210,31 @@ std::string json(const Season& s, const Standings& st, const Certainties& cert,
         const engine::TeamCertainty& c = cert[static_cast<std::size_t>(l.team)];
         json certain = {{"division", certainty_json(c.division)}};
         if (s.postseason.enabled) certain["postseason"] = certainty_json(c.berth);
-        teams.push_back(
-            {{"id", team.id},
-             {"name", team.name},
-             {"wins", l.wins},
-             {"losses", l.losses},
-             {"win_pct", l.win_pct()},
-             {"games_back", l.games_back()},
-             {"runs_for", l.runs_for},
-             {"runs_against", l.runs_against},
-             {"run_differential", l.run_differential()},
-             {"home", {{"wins", l.home_wins}, {"losses", l.home_losses}}},
-             {"road", {{"wins", l.road_wins}, {"losses", l.road_losses}}},
-             {"division", {{"wins", l.division_wins}, {"losses", l.division_losses}}},
-             {"conference", {{"wins", l.conference_wins}, {"losses", l.conference_losses}}},
-             {"last10", {{"wins", l.last10_wins}, {"losses", l.last10_losses}}},
-             {"streak", l.streak},
-             {"seed", l.seed > 0 ? json(l.seed) : json(nullptr)},
-             {"certainty", certain}});
+        teams.push_back({{"team_id", team.id},
+                         {"team_name", team.name},
+                         {"conference", conf.id},
+                         {"division", div.id},
+                         {"place", teams.size() + 1},
+                         {"wins", l.wins},
+                         {"losses", l.losses},
+                         {"win_pct", l.win_pct()},
+                         {"games_back", l.games_back()},
+                         {"runs_scored", l.runs_for},
+                         {"runs_allowed", l.runs_against},
+                         {"run_differential", l.run_differential()},
+                         {"home_wins", l.home_wins},
+                         {"home_losses", l.home_losses},
+                         {"road_wins", l.road_wins},
+                         {"road_losses", l.road_losses},
+                         {"division_wins", l.division_wins},
+                         {"division_losses", l.division_losses},
+                         {"conference_wins", l.conference_wins},
+                         {"conference_losses", l.conference_losses},
+                         {"last10_wins", l.last10_wins},
+                         {"last10_losses", l.last10_losses},
+                         {"streak", l.streak},
+                         {"seed", l.seed > 0 ? json(l.seed) : json(nullptr)},
+                         {"certainty", certain}});
       }
       divs.push_back({{"id", div.id}, {"name", div.name}, {"teams", teams}});
     }

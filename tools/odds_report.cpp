@@ -339,8 +339,8 @@ std::string write_odds_json(const OddsReport& r) {
       const OddsTeam& t = r.teams[row];
       const auto& o = t.odds;
       ordered_json team = {
-          {"id", t.id},
-          {"name", t.name},
+          {"team_id", t.id},
+          {"team_name", t.name},
           {"conference", t.conference_id},
           {"division", t.division_id},
           {"record", {{"wins", t.wins}, {"losses", t.losses}, {"games_left", t.games_left}}},

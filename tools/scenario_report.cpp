@@ -28,6 +28,10 @@ constexpr ChanceRef CHANCES[] = {
     {"mean_wins", "mean wins", false, &engine::TeamComparison::wins},
 };
 
+std::string team_name(const ScenarioReport& r, std::size_t t) {
+  return t < r.team_names.size() && !r.team_names[t].empty() ? r.team_names[t] : r.team_ids[t];
+}
+
 bool changed(const engine::TeamComparison& t) {
   for (const auto& c : CHANCES)
     if ((t.*c.member).diff != 0.0) return true;
@@ -66,6 +70,7 @@ std::string write_scenario_table(const ScenarioReport& r) {
   std::string out;
   out += fmt::format("Scenarios for {} ({}): {} against {}\n", r.league, r.season_label,
                      r.scenario_file, r.season_file);
+  out += provenance_line(r.run) + "\n";
   out += fmt::format(
       "Seed {}, {} seasons, every scenario on the same random numbers as the baseline.\n"
       "Baseline model: {}.\n",
@@ -111,16 +116,19 @@ std::string write_scenario_table(const ScenarioReport& r) {
 
 std::string write_scenario_csv(const ScenarioReport& r) {
   std::string out =
-      "scenario,family,shape,team,chance,baseline,scenario_value,change,se_paired,se_unpaired\n";
+      "scenario,family,shape,team_id,team_name,chance,baseline,scenario_value,change,se_paired,"
+      "se_unpaired" +
+      provenance_csv_header() + "\n";
+  const std::string run_cells = provenance_csv_cells(r.run);
   for (std::size_t k = 0; k < r.names.size(); ++k) {
     const auto& alt = r.comparison.alternatives[k];
     for (std::size_t t = 0; t < alt.teams.size(); ++t) {
       for (const auto& c : CHANCES) {
         const engine::PairedChance& p = alt.teams[t].*c.member;
-        out += fmt::format("{},{},{:.6g},{},{},{:.6f},{:.6f},{:.6f},{:.6f},{:.6f}\n",
+        out += fmt::format("{},{},{:.6g},{},{},{},{:.6f},{:.6f},{:.6f},{:.6f},{:.6f}{}\n",
                            csv_field(r.names[k]), r.models[k].family, r.models[k].shape,
-                           csv_field(r.team_ids[t]), c.key, p.base, p.alt, p.diff, p.se_paired,
-                           p.se_unpaired);
+                           csv_field(r.team_ids[t]), csv_field(team_name(r, t)), c.key, p.base,
+                           p.alt, p.diff, p.se_paired, p.se_unpaired, run_cells);
       }
     }
   }
@@ -133,6 +141,7 @@ std::string write_scenario_json(const ScenarioReport& r) {
   json j;
   j["schema_version"] = SCENARIO_SCHEMA_VERSION;
   j["caution"] = std::string(ODDS_CAUTION);
+  j["run"] = json::parse(provenance_json(r.run).dump());
   j["league"] = r.league;
   j["season"] = r.season_label;
   j["season_file"] = r.season_file;
@@ -145,7 +154,7 @@ std::string write_scenario_json(const ScenarioReport& r) {
     const auto& alt = r.comparison.alternatives[k];
     json teams = json::array();
     for (std::size_t t = 0; t < alt.teams.size(); ++t) {
-      json team{{"team", r.team_ids[t]}};
+      json team{{"team_id", r.team_ids[t]}, {"team_name", team_name(r, t)}};
       for (const auto& c : CHANCES) {
         const engine::PairedChance& p = alt.teams[t].*c.member;
         team[c.key] = {{"baseline", p.base},

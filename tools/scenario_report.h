@@ -12,6 +12,7 @@
 #include "config/season.h"
 #include "engine/compare.h"
 #include "engine/plan.h"
+#include "tools/provenance.h"
 
 namespace standfast::tools {
 
@@ -29,6 +30,8 @@ struct ScenarioReport {
   std::string league, season_label, season_file, scenario_file;
   std::uint64_t seed = 0, seasons = 0;
   std::vector<std::string> team_ids;
+  std::vector<std::string> team_names;  // display names (the id when a team has none)
+  Provenance run;                       // what produced the report (tools/provenance.h)
   ModelUsed baseline_model;
   std::vector<std::string> names;  // per scenario
   std::vector<ModelUsed> models;   // per scenario

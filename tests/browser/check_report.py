@@ -195,13 +195,13 @@ def check_page(page, odds_json, history, out_dir):
     db = sqlite3.connect(history)
     checked_points = 0
     for team in doc["teams"]:
-        tid = team["id"]
+        tid = team["team_id"]
         row = dom.rows.get(tid)
         if row is None:
             fail(f"{tid}: no table row")
             continue
-        if row["name"] != team["name"]:
-            fail(f"{tid}: name {row['name']!r}, JSON {team['name']!r}")
+        if row["name"] != team["team_name"]:
+            fail(f"{tid}: name {row['name']!r}, JSON {team['team_name']!r}")
         fields = {"division": team["division_title"]}
         if run["postseason"]:
             fields["postseason"] = team["postseason"]
