@@ -83,7 +83,7 @@ TEST_CASE("replay records every date and its last date equals a plain odds run b
       CHECK(c["change"].get<double>() == c["after"].get<double>() - c["before"].get<double>());
     }
     // The standard errors are those of the two recorded runs, combined as independent.
-    const std::string id = doc["by_postseason"][0]["id"];
+    const std::string id = doc["by_postseason"][0]["team_id"];
     auto se_at = [&](const std::string& date) {
       return std::stod(standfast::testing::run_command(
           "sqlite3 " + h + " \"SELECT postseason_se FROM team_odds JOIN run ON run.id = run_id " +

@@ -46,9 +46,9 @@ CLI::Option* add_season_file(CLI::App& cmd, std::string& file) {
       ->required();
 }
 
-void add_report_options(CLI::App& cmd, ReportOptions& options) {
+void add_report_options(CLI::App& cmd, ReportOptions& options, std::string_view formats) {
   cmd.add_option("--format", options.format,
-                 help_text("Report format: table, csv or json", "table"));
+                 help_text(fmt::format("Report format: {}", formats), "table"));
   cmd.add_option(
       "-o,--output", options.output,
       help_text("Write the report to this file, whole or not at all", "standard output"));
@@ -141,6 +141,23 @@ CLI::Validator real_number(RealRange r) {
         return {};
       },
       "");
+}
+
+CLI::Option* add_seed_option(CLI::App& cmd, std::uint64_t& seed, std::uint64_t default_seed) {
+  return cmd
+      .add_option("--seed", seed,
+                  help_text("Random seed, 0 to 2^64 - 1; the same seed gives the same output for "
+                            "any thread count",
+                            std::to_string(default_seed)))
+      ->check(whole_number(0, std::numeric_limits<std::uint64_t>::max()));
+}
+
+CLI::Option* add_threads_option(CLI::App& cmd, int& threads) {
+  return cmd
+      .add_option(
+          "--threads", threads,
+          help_text(fmt::format("Worker threads, 0 to {}; 0 uses every core", MAX_THREADS), "0"))
+      ->check(whole_number(0, MAX_THREADS));
 }
 
 std::string warning_line(const config::Diagnostic& warning) {

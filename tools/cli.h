@@ -37,7 +37,10 @@ struct ReportOptions {
   std::string format = "table";
   std::string output;  // empty or "-" = standard output
 };
-void add_report_options(CLI::App& cmd, ReportOptions& options);
+// `formats` is the text of the --format help (a command with a format of its own, such as
+// Markdown, checks that one itself and the others with check_report_options).
+void add_report_options(CLI::App& cmd, ReportOptions& options,
+                        std::string_view formats = "table, csv or json");
 
 // Checks the report options before any work: the format is known and the output path can be
 // written (its folder exists and is writable; the path is not a folder). Throws UsageError.
@@ -59,6 +62,11 @@ struct RealRange {
   bool lower_open = false, upper_open = false;
 };
 CLI::Validator real_number(RealRange range);
+
+// --seed and --threads, the same name, help and checks on every command that simulates.
+inline constexpr int MAX_THREADS = 1024;
+CLI::Option* add_seed_option(CLI::App& cmd, std::uint64_t& seed, std::uint64_t default_seed);
+CLI::Option* add_threads_option(CLI::App& cmd, int& threads);
 
 // Prints the season's warnings to standard error, one per line, as
 // FILE:LINE:COLUMN: warning: message.

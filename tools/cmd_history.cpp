@@ -9,6 +9,7 @@
 #include <memory>
 #include <nlohmann/json.hpp>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "config/as_of.h"
@@ -20,6 +21,7 @@
 #include "tools/odds_report.h"
 #include "tools/odds_run.h"
 #include "tools/output.h"
+#include "tools/provenance.h"
 #include "tools/report_page.h"
 
 namespace standfast::tools {
@@ -39,25 +41,40 @@ struct RunFlags {
   ModelOptions model;
 };
 
-void add_run_flags(CLI::App* cmd, RunFlags& f) {
-  cmd->add_option("season", f.season_file, "Season file (YAML)")->required();
-  cmd->add_option("--seasons", f.seasons,
-                  fmt::format("Simulated seasons per run (default {})", DEFAULT_SEASONS));
-  cmd->add_option("--seed", f.seed, fmt::format("Random seed (default {})", DEFAULT_SEED));
-  cmd->add_option("--threads", f.threads, "Worker threads (default 0 = all cores)");
+// The options every history command shares; `seasons_help`, when given, adds --seasons.
+void add_run_flags(CLI::App* cmd, RunFlags& f, std::string_view seasons_help) {
+  add_season_file(*cmd, f.season_file);
+  if (!seasons_help.empty()) {
+    cmd->add_option("--seasons", f.seasons,
+                    help_text(fmt::format("{}, 1 to {}", seasons_help, MAX_SEASONS),
+                              std::to_string(DEFAULT_SEASONS)))
+        ->check(whole_number(1, MAX_SEASONS));
+  }
+  add_seed_option(*cmd, f.seed, DEFAULT_SEED);
+  add_threads_option(*cmd, f.threads);
   cmd->add_option("--history", f.history,
-                  "History file (SQLite; default $XDG_DATA_HOME/standfast/history.sqlite or "
-                  "~/.local/share/standfast/history.sqlite)");
+                  help_text("The odds history file (SQLite)",
+                            "$XDG_DATA_HOME/standfast/history.sqlite or "
+                            "~/.local/share/standfast/history.sqlite"));
   add_model_options(*cmd, f.model);
 }
 
+void add_game_seasons(CLI::App* cmd, std::uint64_t& game_seasons, std::string_view what) {
+  cmd->add_option("--game-seasons", game_seasons,
+                  help_text(fmt::format("Simulated seasons per result weighed{}, 0 to {}; 0 does "
+                                        "not weigh results",
+                                        what, MAX_SEASONS),
+                            std::to_string(DEFAULT_GAME_SEASONS)))
+      ->check(whole_number(0, MAX_SEASONS));
+}
+
+void add_top(CLI::App* cmd, std::size_t& top, std::string_view what) {
+  cmd->add_option("--top", top, help_text(fmt::format("{}, 1 to 1000", what), "5"))
+      ->check(whole_number(1, 1000));
+}
+
+// The numbers were checked by their validators while parsing.
 engine::RunOptions run_options(const RunFlags& f, std::uint64_t seasons) {
-  if (seasons < 1 || seasons > MAX_SEASONS) {
-    throw UsageError(fmt::format("--seasons: expected 1 to {}, got {}", MAX_SEASONS, seasons));
-  }
-  if (f.threads < 0) {
-    throw UsageError(fmt::format("--threads: expected 0 (all cores) or more, got {}", f.threads));
-  }
   engine::RunOptions run;
   run.seed = f.seed;
   run.seasons = seasons;
@@ -98,8 +115,7 @@ std::string write_report(const OddsReport& report, Format format) {
 struct ReplayFlags : RunFlags {
   int every = 7;
   std::string from;
-  std::string format = "table";
-  std::string output;
+  ReportOptions report;
 };
 
 // The as-of dates of a replay: the default as-of date (the morning after the last played game)
@@ -123,10 +139,7 @@ std::vector<config::DayNumber> replay_dates(const config::Season& season, int ev
 }
 
 void run_replay(const ReplayFlags& f) {
-  const Format format = parse_format(f.format);
-  if (f.every < 1 || f.every > 366) {
-    throw UsageError(fmt::format("--every: expected 1 to 366 days, got {}", f.every));
-  }
+  const Format format = check_report_options(f.report);
   std::optional<config::DayNumber> from;
   if (!f.from.empty()) {
     from = config::parse_date(f.from);
@@ -134,7 +147,7 @@ void run_replay(const ReplayFlags& f) {
       throw UsageError(fmt::format("--from: expected a date YYYY-MM-DD, got '{}'", f.from));
   }
   const engine::RunOptions run = run_options(f, f.seasons);
-  const config::Season season = load(f, {f.output});
+  const config::Season season = load(f, {f.report.output});
   const auto dates = replay_dates(season, f.every, from);
   History history = History::open(history_path(f), true);
   fmt::print(stderr, "replay: {} as-of dates, {} seasons each, into {}\n", dates.size(),
@@ -153,7 +166,7 @@ void run_replay(const ReplayFlags& f) {
   }
   fmt::print(stderr, "replay: {:.1f} s in all\n",
              std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count());
-  write_output(f.output, last_text);
+  write_output(f.report.output, last_text);
 }
 
 // ---- movers ----
@@ -162,8 +175,7 @@ struct MoversFlags : RunFlags {
   std::string from, to;
   std::size_t top = 5;
   std::uint64_t game_seasons = DEFAULT_GAME_SEASONS;
-  std::string format = "table";
-  std::string output;
+  ReportOptions report;
 };
 
 // The two runs to compare: the named dates, else the last recorded date and the one before it
@@ -211,33 +223,32 @@ nlohmann::ordered_json change_json(const Change& c) {
   return {{"before", c.before}, {"after", c.after}, {"change", c.change}, {"se", c.se}};
 }
 
-std::string write_movers_json(const Movers& m) {
+nlohmann::ordered_json move_json(const TeamMove& mv) {
+  return {{"team_id", mv.id},
+          {"team_name", mv.name},
+          {"postseason", change_json(mv.postseason)},
+          {"title", change_json(mv.title)}};
+}
+
+std::string write_movers_json(const Movers& m, const Provenance& run) {
   using nlohmann::ordered_json;
   ordered_json teams_p = ordered_json::array(), teams_t = ordered_json::array(),
                games = ordered_json::array();
-  for (const auto& mv : m.by_postseason) {
-    teams_p.push_back({{"id", mv.id},
-                       {"name", mv.name},
-                       {"postseason", change_json(mv.postseason)},
-                       {"title", change_json(mv.title)}});
-  }
-  for (const auto& mv : m.by_title) {
-    teams_t.push_back({{"id", mv.id},
-                       {"name", mv.name},
-                       {"postseason", change_json(mv.postseason)},
-                       {"title", change_json(mv.title)}});
-  }
+  for (const auto& mv : m.by_postseason) teams_p.push_back(move_json(mv));
+  for (const auto& mv : m.by_title) teams_t.push_back(move_json(mv));
   for (const auto& g : m.games) {
     games.push_back({{"date", g.date},
                      {"home", g.home_id},
                      {"away", g.away_id},
                      {"home_runs", g.home_runs},
                      {"away_runs", g.away_runs},
-                     {"team", g.team_id},
+                     {"team_id", g.team_id},
+                     {"team_name", g.team_name},
                      {"postseason", change_json(g.postseason)}});
   }
   ordered_json doc = {{"schema_version", ODDS_SCHEMA_VERSION},
                       {"caution", std::string(ODDS_CAUTION)},
+                      {"run", provenance_json(run)},
                       {"from", config::format_date(m.from)},
                       {"to", config::format_date(m.to)},
                       {"by_postseason", teams_p},
@@ -246,9 +257,40 @@ std::string write_movers_json(const Movers& m) {
   return doc.dump(2) + '\n';
 }
 
-std::string write_movers_table(const Movers& m) {
-  std::string out = fmt::format("Movers from {} to {}\n{}\n", config::format_date(m.from),
-                                config::format_date(m.to), ODDS_CAUTION);
+// CSV: one long table, one row per listed team or game: `table` (by_postseason, by_title or
+// games), the game's cells (empty for a team row), the team, the chance and its change.
+std::string write_movers_csv(const Movers& m, const Provenance& run) {
+  std::string out =
+      "table,from,to,date,home,away,home_runs,away_runs,team_id,team_name,chance,before,after,"
+      "change,se" +
+      provenance_csv_header() + "\n";
+  const std::string run_cells = provenance_csv_cells(run);
+  const std::string from = config::format_date(m.from), to = config::format_date(m.to);
+  const auto row = [&](std::string_view table, std::string_view game, const std::string& id,
+                       const std::string& name, std::string_view chance, const Change& c) {
+    out += fmt::format("{},{},{},{},{},{},{},{:.6f},{:.6f},{:.6f},{:.6f}{}\n", table, from, to,
+                       game, csv_field(id), csv_field(name), chance, c.before, c.after, c.change,
+                       c.se, run_cells);
+  };
+  for (const auto& mv : m.by_postseason) {
+    row("by_postseason", ",,,,", mv.id, mv.name, "postseason", mv.postseason);
+    row("by_postseason", ",,,,", mv.id, mv.name, "title", mv.title);
+  }
+  for (const auto& mv : m.by_title) {
+    row("by_title", ",,,,", mv.id, mv.name, "postseason", mv.postseason);
+    row("by_title", ",,,,", mv.id, mv.name, "title", mv.title);
+  }
+  for (const auto& g : m.games) {
+    const std::string game = fmt::format("{},{},{},{},{}", g.date, csv_field(g.home_id),
+                                         csv_field(g.away_id), g.home_runs, g.away_runs);
+    row("games", game, g.team_id, g.team_name, "postseason", g.postseason);
+  }
+  return out;
+}
+
+std::string write_movers_table(const Movers& m, const Provenance& run) {
+  std::string out = fmt::format("Movers from {} to {}\n{}\n{}\n", config::format_date(m.from),
+                                config::format_date(m.to), ODDS_CAUTION, provenance_line(run));
   auto block = [&](const char* title, const std::vector<TeamMove>& v, bool t) {
     out += fmt::format("\n{}\n{:<28} {:>8} {:>8} {:>16}\n", title, "Team", "Before", "After",
                        "Change (pp)");
@@ -274,36 +316,39 @@ std::string write_movers_table(const Movers& m) {
   return out;
 }
 
-std::size_t check_top(std::size_t top) {
-  if (top < 1 || top > 1000)
-    throw UsageError(fmt::format("--top: expected 1 to 1000, got {}", top));
-  return top;
-}
-
 void run_movers(const MoversFlags& f) {
-  if (f.format != "table" && f.format != "json" && f.format != "markdown") {
-    throw UsageError(fmt::format("--format: expected table, json or markdown, got '{}'", f.format));
-  }
-  check_top(f.top);
-  const config::Season season = load(f, {f.output});
+  // Movers write Markdown too (the movers part of the report page).
+  const bool markdown = f.report.format == "markdown";
+  const Format format = markdown ? Format::kTable : parse_format(f.report.format);
+  check_output_path(f.report.output);
+  const config::Season season = load(f, {f.report.output});
   const History history = History::open(history_path(f), false);
   const auto runs = history.runs(season.league.name, season.league.season_label);
   const auto [before, after] = pick_runs(runs, f.from, f.to, history.file().string());
   Movers m = compare_runs(before, after, f.top);
   if (f.game_seasons > 0) add_game_effects(m, season, run_options(f, f.game_seasons), f.top);
+  // The two runs compared were recorded earlier (their model, seed and seasons are in the
+  // history); the seed and seasons here are those of the results weighed, if any.
+  Provenance run = make_provenance(season);
+  run.as_of = m.to;
+  if (f.game_seasons > 0) {
+    run.seed = f.seed;
+    run.seasons = f.game_seasons;
+  }
   std::string text;
-  if (f.format == "json") {
-    text = write_movers_json(m);
-  } else if (f.format == "markdown") {
+  if (markdown) {
     ReportPage page;
     page.as_of = m.to;
     page.movers = m;
-    text = write_movers_table(m);
     text = write_report_markdown(page);
+  } else if (format == Format::kJson) {
+    text = write_movers_json(m, run);
+  } else if (format == Format::kCsv) {
+    text = write_movers_csv(m, run);
   } else {
-    text = write_movers_table(m);
+    text = write_movers_table(m, run);
   }
-  write_output(f.output, text);
+  write_output(f.report.output, text);
 }
 
 // ---- report ----
@@ -318,11 +363,8 @@ struct ReportFlags : RunFlags {
 };
 
 void run_report(const ReportFlags& f) {
-  check_top(f.top);
-  if (!(f.target_se >= 0.0 && f.target_se < 0.5)) {
-    throw UsageError(
-        fmt::format("--target-se: expected 0 (off) or a value in (0, 0.5), got {}", f.target_se));
-  }
+  check_output_path(f.output);
+  check_output_path(f.markdown);
   engine::RunOptions run = run_options(f, f.seasons);
   run.target_se = f.target_se;
   const config::Season season = load(f, {f.output, f.markdown});
@@ -359,14 +401,14 @@ void add_history_commands(CLI::App& app) {
         "replay",
         "Run the season at every few days of its played games (fitting on the games up to each "
         "date, simulating the rest), record each date in the history, and print the last "
-        "date's odds.");
-    add_run_flags(cmd, *f);
-    cmd->add_option("--every", f->every, "Days between as-of dates (default 7)");
-    cmd->add_option("--from", f->from,
-                    "Earliest as-of date (YYYY-MM-DD; default the day after "
-                    "the first played game)");
-    cmd->add_option("--format", f->format, "Last date's odds: table, csv or json (default table)");
-    cmd->add_option("-o,--output", f->output, "Write the last date's odds to this file");
+        "date's odds");
+    add_run_flags(cmd, *f, "Simulated seasons per as-of date");
+    cmd->add_option("--every", f->every, help_text("Days between as-of dates, 1 to 366", "7"))
+        ->check(whole_number(1, 366));
+    cmd->add_option(
+        "--from", f->from,
+        help_text("Earliest as-of date (YYYY-MM-DD)", "the day after the first played game"));
+    add_report_options(*cmd, f->report);
     cmd->callback([f] { run_replay(*f); });
   }
   {
@@ -374,18 +416,15 @@ void add_history_commands(CLI::App& app) {
     auto* cmd = app.add_subcommand(
         "movers",
         "From the history: the teams whose postseason and title chances moved most between two "
-        "as-of dates, and the results in between that moved them most.");
-    add_run_flags(cmd, *f);
-    f->seasons = DEFAULT_GAME_SEASONS;
-    cmd->add_option("--from", f->from, "Earlier as-of date (default: the one before --to)");
-    cmd->add_option("--to", f->to, "Later as-of date (default: the last recorded)");
-    cmd->add_option("--top", f->top, "Teams and games listed (default 5)");
-    cmd->add_option("--game-seasons", f->game_seasons,
-                    fmt::format("Simulated seasons per result weighed (default {}; 0 = do not "
-                                "weigh results)",
-                                DEFAULT_GAME_SEASONS));
-    cmd->add_option("--format", f->format, "table, markdown or json (default table)");
-    cmd->add_option("-o,--output", f->output, "Write to this file instead of standard output");
+        "as-of dates, and the results in between that moved them most");
+    add_run_flags(cmd, *f, {});
+    cmd->add_option("--from", f->from,
+                    help_text("Earlier as-of date (YYYY-MM-DD)", "the recorded date before --to"));
+    cmd->add_option("--to", f->to,
+                    help_text("Later as-of date (YYYY-MM-DD)", "the last recorded date"));
+    add_top(cmd, f->top, "Teams and games listed");
+    add_game_seasons(cmd, f->game_seasons, "");
+    add_report_options(*cmd, f->report, "table, csv, json or markdown");
     cmd->callback([f] { run_movers(*f); });
   }
   {
@@ -393,19 +432,24 @@ void add_history_commands(CLI::App& app) {
     auto* cmd = app.add_subcommand(
         "report",
         "One odds run, recorded in the history, written as a self-contained HTML page (odds "
-        "table, final-wins charts, chances through the season, movers) and optionally Markdown.");
-    add_run_flags(cmd, *f);
+        "table, final-wins charts, chances through the season, movers) and optionally Markdown");
+    add_run_flags(cmd, *f, "Simulated seasons");
     cmd->add_option("--as-of", f->as_of,
-                    "As-of date YYYY-MM-DD: games on or after it count as not yet played "
-                    "(default: the day after the last played game)");
-    cmd->add_option("--target-se", f->target_se, "Stop early below this standard error");
-    cmd->add_option("--top", f->top, "Teams and games in the movers (default 5)");
-    cmd->add_option("--game-seasons", f->game_seasons,
-                    fmt::format("Simulated seasons per result weighed in the movers (default {}; "
-                                "0 = do not weigh results)",
-                                DEFAULT_GAME_SEASONS));
-    cmd->add_option("-o,--output", f->output, "The HTML page (default standard output)");
-    cmd->add_option("--markdown", f->markdown, "Also write the table and movers as Markdown here");
+                    help_text("As-of date YYYY-MM-DD: games on or after it count as not yet "
+                              "played",
+                              "the day after the last played game"));
+    cmd->add_option("--target-se", f->target_se,
+                    help_text("Stop early once the largest standard error of any chance is below "
+                              "this probability, e.g. 0.002; 0 runs every season",
+                              "0"))
+        ->check(real_number({0.0, 0.5, false, true}));
+    add_top(cmd, f->top, "Teams and games in the movers");
+    add_game_seasons(cmd, f->game_seasons, " in the movers");
+    cmd->add_option(
+        "-o,--output", f->output,
+        help_text("Write the HTML page to this file, whole or not at all", "standard output"));
+    cmd->add_option("--markdown", f->markdown,
+                    help_text("Also write the table and movers as Markdown to this file"));
     cmd->callback([f] { run_report(*f); });
   }
 }

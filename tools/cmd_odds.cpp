@@ -35,7 +35,6 @@ namespace {
 constexpr std::uint64_t DEFAULT_SEED = 20260101;
 constexpr std::uint64_t DEFAULT_SEASONS = 100000;
 constexpr std::uint64_t MAX_SEASONS = 1'000'000'000;
-constexpr std::uint64_t MAX_THREADS = 1024;
 
 bool same_ignoring_case(std::string_view a, std::string_view b) {
   return std::equal(a.begin(), a.end(), b.begin(), b.end(), [](char x, char y) {
@@ -138,20 +137,13 @@ void add_odds_command(CLI::App& app) {
                   help_text(fmt::format("Simulated seasons, 1 to {}", MAX_SEASONS),
                             std::to_string(DEFAULT_SEASONS)))
       ->check(whole_number(1, MAX_SEASONS));
-  cmd->add_option("--seed", opt->seed,
-                  help_text("Random seed, 0 to 2^64 - 1; the same seed gives the same output for "
-                            "any thread count",
-                            std::to_string(DEFAULT_SEED)))
-      ->check(whole_number(0, std::numeric_limits<std::uint64_t>::max()));
+  add_seed_option(*cmd, opt->seed, DEFAULT_SEED);
   cmd->add_option("--target-se", opt->target_se,
                   help_text("Stop early once the largest standard error of any chance is below "
                             "this probability, e.g. 0.002; 0 runs every season",
                             "0"))
       ->check(real_number({0.0, 0.5, false, true}));
-  cmd->add_option(
-         "--threads", opt->threads,
-         help_text(fmt::format("Worker threads, 0 to {}; 0 uses every core", MAX_THREADS), "0"))
-      ->check(whole_number(0, MAX_THREADS));
+  add_threads_option(*cmd, opt->threads);
   add_report_options(*cmd, opt->report);
   add_model_options(*cmd, opt->model);
   cmd->add_option("--group", opt->group,
@@ -159,12 +151,15 @@ void add_odds_command(CLI::App& app) {
                             "season file)",
                             "every team"));
   cmd->add_option("--as-of", opt->as_of,
-                  "As-of date YYYY-MM-DD, the morning before its games: games on or after it "
-                  "count as not yet played (default: the day after the last played game)");
+                  help_text("As-of date YYYY-MM-DD, the morning before its games: games on or "
+                            "after it count as not yet played",
+                            "the day after the last played game"));
   cmd->add_flag("--record", opt->record,
-                "Record the run in the odds history (default file: "
-                "$XDG_DATA_HOME/standfast/history.sqlite or ~/.local/share/...)");
-  cmd->add_option("--history", opt->history, "Record the run in this history file (SQLite)");
+                help_text("Record the run in the odds history, the --history file or else "
+                          "$XDG_DATA_HOME/standfast/history.sqlite or "
+                          "~/.local/share/standfast/history.sqlite"));
+  cmd->add_option("--history", opt->history,
+                  help_text("Record the run in this odds history file (SQLite)"));
   cmd->callback([opt] { run_odds(*opt); });
 }
 

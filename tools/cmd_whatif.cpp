@@ -18,6 +18,7 @@
 #include "tools/commands.h"
 #include "tools/output.h"
 #include "tools/progress.h"
+#include "tools/provenance.h"
 #include "tools/scenario_report.h"
 
 namespace standfast::tools {
@@ -32,22 +33,18 @@ struct WhatifOptions {
   std::uint64_t seasons = DEFAULT_SEASONS;
   std::uint64_t seed = DEFAULT_SEED;
   int threads = 0;
-  std::string format = "table";
-  std::string output;
+  ReportOptions report;
   ModelOptions model;
 };
 
 void run_whatif(const WhatifOptions& opt) {
-  const Format format = parse_format(opt.format);
-  if (opt.seasons < 1 || opt.seasons > MAX_SEASONS)
-    throw UsageError(fmt::format("--seasons: expected 1 to {}, got {}", MAX_SEASONS, opt.seasons));
-  if (opt.threads < 0)
-    throw UsageError(fmt::format("--threads: expected 0 (all cores) or more, got {}", opt.threads));
-
+  // The numbers are checked by their validators while parsing; the format and the output path
+  // here, before any work.
+  const Format format = check_report_options(opt.report);
   config::Season season = config::load_season(opt.season_file);
   std::vector<std::string> inputs = season.input_files;
   inputs.push_back(opt.scenario_file);
-  check_output_target(opt.output, inputs);
+  check_output_target(opt.report.output, inputs);
   print_warnings(season);
   apply_model_options(opt.model, season);
   const config::ScenarioSet set = config::load_scenarios(opt.scenario_file, season);
@@ -97,8 +94,15 @@ void run_whatif(const WhatifOptions& opt) {
   report.scenario_file = opt.scenario_file;
   report.seed = opt.seed;
   report.seasons = report.comparison.baseline.seasons;
-  for (const auto& t : season.teams) report.team_ids.push_back(t.id);
+  for (const auto& t : season.teams) {
+    report.team_ids.push_back(t.id);
+    report.team_names.push_back(t.name.empty() ? t.id : t.name);
+  }
   report.baseline_model = model_used(baseline);
+  report.run = make_provenance(season);
+  set_model(report.run, season, report.baseline_model.shape);
+  report.run.seed = opt.seed;
+  report.run.seasons = report.seasons;
   for (std::size_t k = 0; k < set.scenarios.size(); ++k) {
     report.names.push_back(set.scenarios[k].name);
     report.models.push_back(model_used(*plans[k]));
@@ -115,7 +119,7 @@ void run_whatif(const WhatifOptions& opt) {
       text = write_scenario_json(report);
       break;
   }
-  write_output(opt.output, text);
+  write_output(opt.report.output, text);
 }
 
 }  // namespace
@@ -125,18 +129,19 @@ void add_whatif_command(CLI::App& app) {
   auto* cmd = app.add_subcommand(
       "whatif",
       "Run the scenarios of a scenario file against the season on common random numbers and "
-      "print each team's change in chances with its paired standard error.");
-  cmd->add_option("season", opt->season_file, "Season file (YAML)")->required();
-  cmd->add_option("scenarios", opt->scenario_file, "Scenario file (YAML)")->required();
+      "print each team's change in chances with its paired standard error");
+  add_season_file(*cmd, opt->season_file);
+  cmd->add_option("SCENARIO_FILE", opt->scenario_file, help_text("The scenario file (YAML)"))
+      ->required();
   cmd->add_option("--seasons", opt->seasons,
-                  fmt::format("Simulated seasons, the same for the baseline and every scenario "
-                              "(default {})",
-                              DEFAULT_SEASONS));
-  cmd->add_option("--seed", opt->seed, fmt::format("Random seed (default {})", DEFAULT_SEED));
-  cmd->add_option("--threads", opt->threads, "Worker threads (default 0 = all cores)");
-  cmd->add_option("--format", opt->format, "Output format: table, csv or json (default table)");
-  cmd->add_option("-o,--output", opt->output,
-                  "Write to this file (whole or not at all) instead of standard output");
+                  help_text(fmt::format("Simulated seasons, the same for the baseline and every "
+                                        "scenario, 1 to {}",
+                                        MAX_SEASONS),
+                            std::to_string(DEFAULT_SEASONS)))
+      ->check(whole_number(1, MAX_SEASONS));
+  add_seed_option(*cmd, opt->seed, DEFAULT_SEED);
+  add_threads_option(*cmd, opt->threads);
+  add_report_options(*cmd, opt->report);
   add_model_options(*cmd, opt->model);
   cmd->callback([opt] { run_whatif(*opt); });
 }

@@ -100,11 +100,14 @@ std::string provenance_line(const Provenance& p) {
     return fmt::format("{} sha256 {}", base_name(path),
                        sha.empty() ? std::string("(unreadable)") : sha.substr(0, 12));
   };
-  std::string out =
-      fmt::format("Run: standfast {}; {}", p.program_version, file(p.season_file, p.season_sha256));
-  if (!p.games_file.empty()) out += ", " + file(p.games_file, p.games_sha256);
-  out += fmt::format("; as of {}",
-                     p.as_of ? config::format_date(*p.as_of) : std::string("(no dated game)"));
+  std::string out = fmt::format("Run: standfast {}", p.program_version);
+  // A report of no season file (the backtest's synthetic seasons) has no files and no as-of date.
+  if (!p.season_file.empty()) {
+    out += "; " + file(p.season_file, p.season_sha256);
+    if (!p.games_file.empty()) out += ", " + file(p.games_file, p.games_sha256);
+    out += fmt::format("; as of {}",
+                       p.as_of ? config::format_date(*p.as_of) : std::string("(no dated game)"));
+  }
   if (p.family) {
     out += fmt::format("; model {}", models::family_name(*p.family));
     if (p.shape) {

@@ -7,6 +7,7 @@
 #include <map>
 
 #include "tools/output.h"
+#include "tools/provenance.h"
 
 namespace standfast::tools {
 namespace {
@@ -289,6 +290,17 @@ std::string change_cell(const Change& c) {
 
 }  // namespace
 
+namespace {
+// The provenance line of the run shown (tools/provenance.h), empty when the page holds no run.
+std::string run_text(const OddsReport& r) {
+  if (r.run.program_version.empty()) return {};
+  Provenance p = r.run;
+  p.seed = r.seed;
+  p.seasons = r.seasons;
+  return provenance_line(p);
+}
+}  // namespace
+
 std::string write_report_html(const ReportPage& page) {
   const OddsReport& r = page.report;
   const std::string as_of = config::format_date(page.as_of);
@@ -433,9 +445,10 @@ std::string write_report_html(const ReportPage& page) {
   }
   out += "</section>\n</main>\n";
   out += fmt::format(
-      "<footer>Made by standfast from {} simulated seasons (seed {}). {}</footer>\n</body>\n"
+      "<footer>Made by standfast from {} simulated seasons (seed {}). {}<br><span "
+      "id=\"run\">{}</span></footer>\n</body>\n"
       "</html>\n",
-      group_digits(r.seasons), r.seed, esc(ODDS_CAUTION));
+      group_digits(r.seasons), r.seed, esc(ODDS_CAUTION), esc(run_text(r)));
   return out;
 }
 
@@ -449,6 +462,7 @@ std::string write_report_markdown(const ReportPage& page) {
       "{} simulated seasons, seed {}, model `{}`, largest standard error {:.2f} percentage "
       "points.\n",
       group_digits(r.seasons), r.seed, page.model, 100.0 * r.max_se);
+  if (!r.run.program_version.empty()) out += fmt::format("\n{}\n", md(run_text(r)));
   const auto cols = chance_columns(r);
   for (const OddsDivision& d : r.divisions) {
     out += fmt::format("\n## {}\n\n| Club | Record | To play | Wins expected |",
