@@ -21,8 +21,11 @@
 // lasts 100 innings with a chance below 1e-25; the longest professional games went a little
 // over 30 innings (from memory).
 //
-// Log5 family: no scores; the home side wins with probability odds_h H / (odds_h H + odds_a)
-// (Bradley-Terry / log5, REFERENCE_VALUES section 5).
+// Log5 family: no scores and no innings; the home side wins with probability
+// odds_h H^g / (odds_h H^g + odds_a), odds = p / (1 - p) of each side's win percentage: the home
+// odds are multiplied by the home edge H (Plan::home_edge) raised to the shape g (Plan::shape);
+// engine/season_runner.h computes the factor H^g once per season (Bradley-Terry / log5,
+// REFERENCE_VALUES section 5).
 #ifndef STANDFAST_ENGINE_GAME_H
 #define STANDFAST_ENGINE_GAME_H
 
@@ -191,9 +194,9 @@ class GameEngine {
   const ExtraInnings& extra_innings() const { return extra_; }
 
   // The parameters of sides with these expected runs (score families) or, for log5, these odds
-  // (p / (1 - p), home edge included). A Weibull scale is capped so that a regulation score is
-  // at most max_regulation_runs() (the cap is thousands of runs per game, far outside any real
-  // league): the season loop then needs no clamp.
+  // (p / (1 - p); the home odds already multiplied by home_edge^shape). A Weibull scale is capped
+  // so that a regulation score is at most max_regulation_runs() (the cap is thousands of runs per
+  // game, far outside any real league): the season loop then needs no clamp.
   Sides sides(double home_mean, double away_mean, double home_odds = 1.0,
               double away_odds = 1.0) const {
     Sides s;

@@ -100,9 +100,13 @@ class Plan {
   GameModel model = GameModel::kWeibull;
   // Model parameters.
   double league_mean = 4.5;  // runs per side per game
-  double shape = 1.83;       // Weibull shape (also the exponent that maps win_pct to runs)
-  double nb_size = 10.0;     // negative binomial size
-  double home_edge = 1.0;    // multiplier on the home side's runs (log5: on the home odds)
+  // Weibull shape. Log5: the exponent g of the home edge (the home odds are multiplied by
+  // home_edge^g) and of the Pythagorean win percentage from the ratings; model.shape, else 1.83.
+  double shape = 1.83;
+  double nb_size = 10.0;  // negative binomial size
+  // Multiplier on the home side's expected runs. Log5: the home odds p / (1 - p) are multiplied
+  // by home_edge^shape; model.home_edge when it is a number, else 1 (log5 fits nothing).
+  double home_edge = 1.0;
   int regulation_innings = 9;
   config::ExtraInningsRule extra_innings;
 

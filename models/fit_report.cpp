@@ -42,9 +42,31 @@ FitReport fit_report(const config::Season& season, double family_alpha) {
   rep.shrink_auto = season.model.shrink_auto;
   RatingsFit rf = fit_ratings_detail(season);
   const std::vector<Side>& sides = rf.sides;
-  if (sides.empty()) throw std::domain_error("fit_report: no played game to fit");
   rep.ratings = rf.ratings;
   rep.shrink_games = rf.shrink_games;
+  if (sides.empty()) {
+    // Nothing to fit: the engine's defaults, with no diagnostics.
+    constexpr double NOT_FITTED = std::numeric_limits<double>::quiet_NaN();
+    rep.defaults = true;
+    rep.test_family = rep.family;
+    rep.plain_shape = rep.plain_shape_se = NOT_FITTED;
+    rep.teams.resize(static_cast<std::size_t>(n));
+    for (int i = 0; i < n; ++i) {
+      TeamReport& t = rep.teams[static_cast<std::size_t>(i)];
+      const TeamRating& r = rep.ratings.teams[static_cast<std::size_t>(i)];
+      t.offence = r.offence;
+      t.defence = r.defence;
+      t.log_offence_se = r.log_offence_se;
+      t.log_defence_se = r.log_defence_se;
+      t.runs_scored = t.runs_allowed = t.plain_scored = t.plain_allowed = NOT_FITTED;
+      t.plain_offence = t.plain_defence = t.mle_offence = t.mle_defence = NOT_FITTED;
+      t.plain_scored_se = t.plain_allowed_se = NOT_FITTED;
+      t.mle_log_offence_se = t.mle_log_defence_se = NOT_FITTED;
+      t.chi_square = t.p_value = NOT_FITTED;
+      t.expected_pct = t.expected_wins = t.wins_minus_expected = NOT_FITTED;
+    }
+    return rep;
+  }
   rep.games_fitted = rf.ratings.games_fitted;
   rep.info_per_side = rf.info_per_side;
 

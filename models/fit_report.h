@@ -76,6 +76,11 @@ struct FamilyReport {
 };
 
 struct FitReport {
+  // No played game: nothing is fitted. `ratings` holds the documented defaults the engine runs
+  // on (models/ratings.cpp: league mean, shape, home edge, the prior's uncertainty), `teams` the
+  // average ratings with that uncertainty; the diagnostics (plain fit, goodness of fit, families,
+  // Pythagorean expectation) are empty or NaN.
+  bool defaults = false;
   config::ScoreFamily family = config::ScoreFamily::kWeibull;       // of the ratings
   config::ScoreFamily test_family = config::ScoreFamily::kWeibull;  // of the diagnostics
   LeagueRatings ratings;
@@ -96,7 +101,8 @@ struct FitReport {
   std::vector<FamilyReport> families;
 };
 
-// Throws std::domain_error on bad data (see fit_ratings) or when no game has been played.
+// Throws std::domain_error on bad data (see fit_ratings). With no played game it returns the
+// defaults (FitReport::defaults) rather than throwing, as the engine runs on them.
 FitReport fit_report(const config::Season& season, double family_alpha = 0.05);
 
 }  // namespace standfast::models

@@ -81,7 +81,7 @@ TEST_CASE("check prints a summary of a valid file and exits 0") {
   CHECK_THAT(r.out, Contains("Postseason: 8 teams, conference brackets"));
   CHECK_THAT(r.out, Contains("Rounds: Semifinal (best of 3), Conference final (best of 5), Final"));
   CHECK_THAT(r.out, Contains("head-to-head, run differential, last games (10 within conference)"));
-  CHECK_THAT(r.out, Contains("Model: Weibull"));
+  CHECK_THAT(r.out, Contains("Model: weibull"));
   CHECK_FALSE(r.wrote_files);
 }
 
@@ -91,4 +91,16 @@ TEST_CASE("check prints warnings on stderr with file and line and still exits 0"
   CHECK_THAT(r.err, Contains(DATA + "/valid/short_schedule.yaml:3:"));
   CHECK_THAT(r.err, Contains("warning: league.games_per_team is 3 but 2 of 2 teams"));
   CHECK_THAT(r.out, Contains("OK with 1 warning"));
+}
+
+TEST_CASE("check says what the engine does with family log5: nothing fitted, home odds x H^g") {
+  const Run r = check(DATA + "/valid/log5.yaml");
+  CHECK(r.status == 0);
+  CHECK_THAT(r.out, Contains("Model: log5 (win percentages from the win_pct overrides; no scores, "
+                             "no innings, nothing fitted, strengths not drawn)"));
+  // Ref: closed form, 1.04^1.83 = exp(1.83 ln 1.04) = 1.0744124 (python3 -c 'print(1.04**1.83)':
+  // 1.0744123974...); the shape is the engine's default exponent 1.83 (engine/plan.h).
+  CHECK_THAT(r.out, Contains("home odds multiplied by home edge 1.04 (fixed) raised to the shape "
+                             "1.83 (default) = 1.074"));
+  CHECK_THAT(r.out, !Contains("fitted;"));
 }

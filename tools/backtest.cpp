@@ -340,7 +340,7 @@ std::string write_backtest_csv(const BacktestResult& r) {
       s += fmt::format(
           "{},{:.1f},{:.1f},{},{:.6f},{:.6f},{:.6f},{:.6f},{},{:.6f},{:.6f},{:.6f},{},{}\n",
           e.event, b.lo, b.hi, b.forecasts, b.mean_forecast, b.observed, b.interval_lo,
-          b.interval_hi, b.inside ? "yes" : "no", e.brier, e.naive_brier, e.skill, r.family,
+          b.interval_hi, b.inside ? "true" : "false", e.brier, e.naive_brier, e.skill, r.family,
           r.shape);
     }
   }

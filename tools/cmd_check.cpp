@@ -4,14 +4,18 @@
 #include <fmt/core.h>
 
 #include <algorithm>
+#include <cmath>
 #include <limits>
 #include <memory>
 #include <nlohmann/json.hpp>
+#include <optional>
 #include <string>
 #include <utility>
 #include <vector>
 
 #include "config/load.h"
+#include "engine/plan.h"
+#include "models/score_dist.h"
 #include "tools/cli.h"
 #include "tools/commands.h"
 #include "tools/output.h"
@@ -59,18 +63,44 @@ const char* scope_name(config::TiebreakScope s) {
   return "?";
 }
 
-const char* family_name(config::ScoreFamily f) {
-  switch (f) {
-    case config::ScoreFamily::kWeibull:
-      return "Weibull";
-    case config::ScoreFamily::kNegativeBinomial:
-      return "negative binomial";
-    case config::ScoreFamily::kPoisson:
-      return "Poisson";
-    case config::ScoreFamily::kLog5:
-      return "log5 (win percentages only)";
+// What the engine will do with the model section (models/ratings.cpp, engine/plan.cpp):
+// which values are fitted, fixed or defaults. Log5 fits nothing: it plays each game as one draw
+// from the teams' win_pct overrides, the home odds multiplied by home_edge^shape.
+std::string model_text(const Season& s) {
+  const config::ModelSpec& m = s.model;
+  const std::string family = models::family_name(m.family);
+  const bool played =
+      std::any_of(s.games.begin(), s.games.end(), [](const config::Game& g) { return g.played; });
+  const auto fixed_or_fitted = [played](const std::optional<double>& v) {
+    return v ? fmt::format("{:g} (fixed)", *v)
+             : std::string(played ? "fitted" : "the documented default (no game played yet)");
+  };
+  if (m.family == config::ScoreFamily::kLog5) {
+    const double g = m.shape.value_or(engine::Plan{}.shape);
+    const double h = m.home_edge.value_or(1.0);
+    return fmt::format(
+        "Model: {} (win percentages from the win_pct overrides; no scores, no innings, nothing "
+        "fitted, strengths not drawn); home odds multiplied by home edge {:g}{} raised to the "
+        "shape {:g}{} = {:.4g}\n",
+        family, h, m.home_edge ? " (fixed)" : " (none: log5 fits no home edge)", g,
+        m.shape ? " (fixed)" : " (default)", std::pow(h, g));
   }
-  return "?";
+  std::string shape;
+  if (m.family == config::ScoreFamily::kWeibull) {
+    shape = "; shape gamma " + fixed_or_fitted(m.shape);
+  } else if (m.family == config::ScoreFamily::kNegativeBinomial) {
+    shape = "; size " + fixed_or_fitted(m.shape);
+  } else {
+    shape = "; no shape";
+  }
+  return fmt::format(
+      "Model: {}{}; home edge {}; shrink {}{}{}\n", family, shape, fixed_or_fitted(m.home_edge),
+      m.shrink_auto ? std::string("estimated from the played games (auto)")
+                    : fmt::format("{:g} games", m.shrink_games),
+      m.lopsided ? fmt::format("; lopsided runs beyond {} weighted {}", m.lopsided->margin,
+                               m.lopsided->weight)
+                 : "",
+      m.strength_uncertainty ? "; strengths drawn from their uncertainty" : "; strengths fixed");
 }
 
 // Overrides per team in the order they apply, each with what it does to the team's strength
@@ -199,16 +229,7 @@ std::string summary_table(const Season& s, const Provenance& run) {
   out += fmt::format("Tiebreakers: {}{}\n",
                      s.tiebreakers.extra_game ? "extra game for two-team ties, else " : "", order);
 
-  const config::ModelSpec& m = s.model;
-  out += fmt::format("Model: {}; shape {}; home edge {}; shrink {}{}{}\n", family_name(m.family),
-                     m.shape ? fmt::format("{}", *m.shape) : "fitted",
-                     m.home_edge ? fmt::format("{}", *m.home_edge) : "fitted",
-                     m.shrink_auto ? "estimated from the played games (auto)"
-                                   : fmt::format("{} games", m.shrink_games),
-                     m.lopsided ? fmt::format("; lopsided runs beyond {} weighted {}",
-                                              m.lopsided->margin, m.lopsided->weight)
-                                : "",
-                     m.strength_uncertainty ? "" : "; strengths fixed");
+  out += model_text(s);
   out += overrides_text(s);
   out += fmt::format(
       "OK{}\n", s.warnings.empty()
@@ -276,8 +297,8 @@ std::string summary_json(const Season& s, const Provenance& run) {
   const auto games = team_games(s);
   for (std::size_t i = 0; i < s.teams.size(); ++i) {
     const config::Team& t = s.teams[i];
-    teams.push_back({{"id", t.id},
-                     {"name", t.name},
+    teams.push_back({{"team_id", t.id},
+                     {"team_name", t.name},
                      {"conference", s.groups[static_cast<std::size_t>(t.conference)].id},
                      {"division", s.groups[static_cast<std::size_t>(t.division)].id},
                      {"venue", t.venue},

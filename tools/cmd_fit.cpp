@@ -9,6 +9,7 @@
 #include <nlohmann/json.hpp>
 #include <stdexcept>
 #include <string>
+#include <vector>
 
 #include "config/as_of.h"
 #include "config/load.h"
@@ -35,9 +36,106 @@ std::string with_se(double value, double se, int digits) {
   return fmt::format("{:.{}f} ± {:.{}f}", value, digits, se, digits);
 }
 
-std::string render_table(const config::Season& s, const FitReport& r, const Provenance& run) {
+// The teams by conference and division, as `standings` and `odds` list them: one block per
+// division in file order, titled "Conference - Division" (the division's name alone when it is
+// the conference), the teams in file order.
+struct DivisionBlock {
+  std::string title;
+  std::vector<std::size_t> teams;
+};
+std::vector<DivisionBlock> by_division(const config::Season& s) {
+  std::vector<DivisionBlock> blocks;
+  std::vector<bool> listed(s.teams.size(), false);
+  for (const int d : s.divisions) {
+    const config::Group& div = s.groups[static_cast<std::size_t>(d)];
+    DivisionBlock b;
+    const std::string name = div.name.empty() ? div.id : div.name;
+    b.title = name;
+    if (div.parent >= 0) {
+      const config::Group& conf = s.groups[static_cast<std::size_t>(div.parent)];
+      const std::string conf_name = conf.name.empty() ? conf.id : conf.name;
+      if (conf_name != name) b.title = conf_name + " - " + name;
+    }
+    for (const int t : div.teams) {
+      b.teams.push_back(static_cast<std::size_t>(t));
+      listed[static_cast<std::size_t>(t)] = true;
+    }
+    if (!b.teams.empty()) blocks.push_back(std::move(b));
+  }
+  DivisionBlock rest{"Other teams", {}};
+  for (std::size_t t = 0; t < s.teams.size(); ++t)
+    if (!listed[t]) rest.teams.push_back(t);
+  if (!rest.teams.empty()) blocks.push_back(std::move(rest));
+  return blocks;
+}
+
+// The conference and division ids of a team (empty when it has none).
+std::string group_id(const config::Season& s, int g) {
+  return g >= 0 ? s.groups[static_cast<std::size_t>(g)].id : std::string();
+}
+
+// "1.820 (fixed)" or "1.820 (default)": a league value that was not fitted.
+std::string not_fitted(double value, bool fixed) {
+  return fmt::format("{:.3f} ({})", value, fixed ? "fixed in the season file" : "default");
+}
+
+// No played game: the defaults the engine runs on (what `standfast odds` uses), and the
+// ratings they give every team.
+std::string render_defaults_table(const config::Season& s, const FitReport& r,
+                                  const Provenance& run) {
   std::string out;
   const auto& lr = r.ratings;
+  const config::ModelSpec& m = s.model;
+  out += fmt::format("Scoring model of {} ({}), from {}\n", s.league.name, s.league.season_label,
+                     s.file);
+  out += provenance_line(run) + "\n";
+  out += fmt::format("Family: {}   games fitted: 0\n", models::family_name(r.family));
+  out +=
+      "No game is played before the as-of date, so nothing is fitted: these are the documented\n"
+      "defaults that `standfast odds` runs on (README.md, \"Choices and defaults\").\n";
+  if (r.family == config::ScoreFamily::kLog5) {
+    out +=
+        "Family log5 models no scores: every team is rated 1.00 and the engine takes win\n"
+        "percentages from the overrides.\n";
+  } else {
+    out += fmt::format("  League mean, runs per side (neutral venue) {}\n",
+                       not_fitted(lr.league_mean, false));
+    if (r.family == config::ScoreFamily::kWeibull) {
+      out += fmt::format("  Weibull shape gamma                       {}\n",
+                         not_fitted(lr.shape, m.shape.has_value()));
+    } else if (r.family == config::ScoreFamily::kNegativeBinomial) {
+      out += fmt::format("  Negative-binomial size                    {}\n",
+                         not_fitted(lr.shape, m.shape.has_value()));
+    }
+    out += fmt::format("  Home edge (multiplier on home runs)       {}\n",
+                       not_fitted(lr.home_edge, m.home_edge.has_value()));
+    out += fmt::format(
+        "  Shrinkage toward the league: {:g} games; the prior alone gives each rating its "
+        "uncertainty\n",
+        r.shrink_games);
+  }
+  out += "\nTeam ratings: every team average (1.000), ± the standard error of the log.\n";
+  out += fmt::format("{:<8} {:<28} {:>14} {:>14}  {:>8} {:>8}\n", "team", "name", "offence",
+                     "defence", "model RS", "model RA");
+  for (const DivisionBlock& b : by_division(s)) {
+    out += fmt::format("{}\n", b.title);
+    for (const std::size_t i : b.teams) {
+      const auto& t = r.teams[i];
+      out += fmt::format("{:<8} {:<28} {:>14} {:>14}  {:>8.3f} {:>8.3f}\n", s.teams[i].id,
+                         s.teams[i].name, with_se(t.offence, t.log_offence_se, 3),
+                         with_se(t.defence, t.log_defence_se, 3), lr.league_mean * t.offence,
+                         lr.league_mean * t.defence);
+    }
+  }
+  out += "\nModel estimates under stated assumptions, not advice for wagering.\n";
+  return out;
+}
+
+std::string render_table(const config::Season& s, const FitReport& r, const Provenance& run) {
+  if (r.defaults) return render_defaults_table(s, r, run);
+  std::string out;
+  const auto& lr = r.ratings;
+  const auto blocks = by_division(s);
   out += fmt::format("Scoring model of {} ({}), from {}\n", s.league.name, s.league.season_label,
                      s.file);
   out += provenance_line(run) + "\n";
@@ -51,10 +149,10 @@ std::string render_table(const config::Season& s, const FitReport& r, const Prov
     out += fmt::format("  League mean, runs per side (neutral venue) {}\n",
                        with_se(lr.league_mean, lr.league_mean_se, 3));
     if (r.family == config::ScoreFamily::kWeibull) {
-      out += fmt::format("  Weibull shape gamma (adjusted fit)        {}\n",
+      out += fmt::format("  Weibull shape gamma (engine: adjusted fit with shrinkage) {}\n",
                          with_se(lr.shape, lr.shape_se, 3));
     } else if (r.family == config::ScoreFamily::kNegativeBinomial) {
-      out += fmt::format("  Negative-binomial size                    {}\n",
+      out += fmt::format("  Negative-binomial size (engine: adjusted fit with shrinkage) {}\n",
                          with_se(lr.shape, lr.shape_se, 3));
     }
     out += fmt::format("  Home edge (multiplier on home runs)       {}\n",
@@ -79,16 +177,20 @@ std::string render_table(const config::Season& s, const FitReport& r, const Prov
   out += fmt::format("{:<8} {:>4} {:>5} {:>5}  {:>14} {:>14}  {:>14} {:>14}  {:>8} {:>8}  {:>13}\n",
                      "team", "G", "RS/G", "RA/G", "plain off", "plain def", "adj off", "adj def",
                      "model RS", "model RA", "free gamma");
-  for (size_t i = 0; i < r.teams.size(); ++i) {
-    const auto& t = r.teams[i];
-    out += fmt::format(
-        "{:<8} {:>4} {:>5.2f} {:>5.2f}  {:>14} {:>14}  {:>14} {:>14}  {:>8.3f} {:>8.3f}  {:>13}\n",
-        s.teams[i].id, t.games, t.runs_scored, t.runs_allowed,
-        with_se(t.plain_offence, t.plain_scored_se, 3),
-        with_se(t.plain_defence, t.plain_allowed_se, 3), with_se(t.offence, t.log_offence_se, 3),
-        with_se(t.defence, t.log_defence_se, 3), lr.league_mean * t.offence,
-        lr.league_mean * t.defence,
-        t.free_shape > 0 ? with_se(t.free_shape, t.free_shape_se, 2) : "-");
+  for (const DivisionBlock& b : blocks) {
+    out += fmt::format("{}\n", b.title);
+    for (const std::size_t i : b.teams) {
+      const auto& t = r.teams[i];
+      out += fmt::format(
+          "{:<8} {:>4} {:>5.2f} {:>5.2f}  {:>14} {:>14}  {:>14} {:>14}  {:>8.3f} {:>8.3f}  "
+          "{:>13}\n",
+          s.teams[i].id, t.games, t.runs_scored, t.runs_allowed,
+          with_se(t.plain_offence, t.plain_scored_se, 3),
+          with_se(t.plain_defence, t.plain_allowed_se, 3), with_se(t.offence, t.log_offence_se, 3),
+          with_se(t.defence, t.log_defence_se, 3), lr.league_mean * t.offence,
+          lr.league_mean * t.defence,
+          t.free_shape > 0 ? with_se(t.free_shape, t.free_shape_se, 2) : "-");
+    }
   }
 
   out += fmt::format(
@@ -100,20 +202,31 @@ std::string render_table(const config::Season& s, const FitReport& r, const Prov
       r.tests);
   out += fmt::format("{:<8} {:>9} {:>4} {:>9} {:>10}  {}\n", "team", "chi-sq", "df", "p-value",
                      "critical", "verdict");
-  for (size_t i = 0; i < r.teams.size(); ++i) {
-    const auto& t = r.teams[i];
-    if (t.df <= 0) {
-      out += fmt::format("{:<8} {:>9} {:>4} {:>9} {:>10}  too few games\n", s.teams[i].id, "-", "-",
-                         "-", "-");
-      continue;
+  for (const DivisionBlock& b : blocks) {
+    out += fmt::format("{}\n", b.title);
+    for (const std::size_t i : b.teams) {
+      const auto& t = r.teams[i];
+      if (t.df <= 0) {
+        out += fmt::format("{:<8} {:>9} {:>4} {:>9} {:>10}  too few games\n", s.teams[i].id, "-",
+                           "-", "-", "-");
+        continue;
+      }
+      out += fmt::format("{:<8} {:>9.2f} {:>4} {:>9.4f} {:>10.2f}  {}\n", s.teams[i].id,
+                         t.chi_square, t.df, t.p_value, t.critical, t.rejected ? "poor fit" : "ok");
     }
-    out += fmt::format("{:<8} {:>9.2f} {:>4} {:>9.4f} {:>10.2f}  {}\n", s.teams[i].id, t.chi_square,
-                       t.df, t.p_value, t.critical, t.rejected ? "poor fit" : "ok");
   }
 
   out +=
       "\nScoring families, adjusted model at maximum likelihood (AIC = 2k - 2 log L; lower is "
       "better)\n";
+  // The one line that says why the Weibull shape here is not the engine's shape above.
+  if (r.mle && (r.family == config::ScoreFamily::kWeibull ||
+                r.family == config::ScoreFamily::kNegativeBinomial)) {
+    out += fmt::format(
+        "(Fitted without the shrinkage prior, so the {} shape here, {:.3f}, differs from the "
+        "engine's {:.3f} above by the prior alone.)\n",
+        models::family_name(r.family), r.mle->shape, lr.shape);
+  }
   out += fmt::format("{:<18} {:>8} {:>4} {:>12} {:>11} {:>9}\n", "family", "shape", "k", "log L",
                      "AIC", "dAIC");
   for (const auto& f : r.families) {
@@ -129,53 +242,65 @@ std::string render_table(const config::Season& s, const FitReport& r, const Prov
       r.plain_shape);
   out += fmt::format("{:<8} {:>4} {:>4} {:>5} {:>5} {:>8} {:>7} {:>7}\n", "team", "W", "L", "RS/G",
                      "RA/G", "exp pct", "exp W", "W-exp");
-  for (size_t i = 0; i < r.teams.size(); ++i) {
-    const auto& t = r.teams[i];
-    out += fmt::format("{:<8} {:>4} {:>4} {:>5.2f} {:>5.2f} {:>8.3f} {:>7.1f} {:>+7.1f}\n",
-                       s.teams[i].id, t.wins, t.losses, t.runs_scored, t.runs_allowed,
-                       t.expected_pct, t.expected_wins, t.wins_minus_expected);
+  for (const DivisionBlock& b : blocks) {
+    out += fmt::format("{}\n", b.title);
+    for (const std::size_t i : b.teams) {
+      const auto& t = r.teams[i];
+      out += fmt::format("{:<8} {:>4} {:>4} {:>5.2f} {:>5.2f} {:>8.3f} {:>7.1f} {:>+7.1f}\n",
+                         s.teams[i].id, t.wins, t.losses, t.runs_scored, t.runs_allowed,
+                         t.expected_pct, t.expected_wins, t.wins_minus_expected);
+    }
   }
   out += "\nModel estimates under stated assumptions, not advice for wagering.\n";
   return out;
 }
 
-// CSV: one long table, one value per row: `table` (league, team or family), `id` (empty for the
-// league, the team id, the family name), `field`, `value`, then the run columns of every report.
+// CSV: one long table, one value per row: `table` (league, team or family), `team_id` and
+// `team_name` (team rows), `family` (family rows), `field`, `value`, then the run columns of
+// every report.
 std::string render_csv(const config::Season& s, const FitReport& r, const Provenance& run) {
   const auto& lr = r.ratings;
   const std::string run_cells = provenance_csv_cells(run);
-  std::string out = "table,id,field,value" + provenance_csv_header() + "\n";
-  const auto row = [&](std::string_view table, std::string_view id, std::string_view field,
-                       const std::string& value) {
-    out += fmt::format("{},{},{},{}{}\n", table, csv_field(id), field, csv_field(value), run_cells);
+  std::string out = "table,team_id,team_name,family,field,value" + provenance_csv_header() + "\n";
+  std::string team_id, team_name, family;  // the key cells of the rows being written
+  const auto row = [&](std::string_view table, std::string_view field, const std::string& value) {
+    out += fmt::format("{},{},{},{},{},{}{}\n", table, csv_field(team_id), csv_field(team_name),
+                       family, field, csv_field(value), run_cells);
   };
   const auto num = [](double v, int significant = 6) {
     return std::isfinite(v) ? fmt::format("{:.{}g}", v, significant) : std::string();
   };
-  row("league", "", "family", models::family_name(r.family));
-  row("league", "", "games_fitted", fmt::format("{}", r.games_fitted));
-  row("league", "", "league_mean", num(lr.league_mean));
-  row("league", "", "league_mean_se", num(lr.league_mean_se));
-  row("league", "", "shape", num(lr.shape));
-  row("league", "", "shape_se", num(lr.shape_se));
-  row("league", "", "home_edge", num(lr.home_edge));
-  row("league", "", "home_edge_se", num(lr.home_edge_se));
-  row("league", "", "plain_shape", num(r.plain_shape));
-  row("league", "", "plain_shape_se", num(r.plain_shape_se));
-  row("league", "", "shrink_games", num(r.shrink_games));
-  row("league", "", "shrink_auto", r.shrink_auto ? "true" : "false");
-  row("league", "", "suggested_shrink_games",
+  row("league", "family", models::family_name(r.family));
+  row("league", "defaults", r.defaults ? "true" : "false");
+  row("league", "games_fitted", fmt::format("{}", r.games_fitted));
+  row("league", "league_mean", num(lr.league_mean));
+  row("league", "league_mean_se", num(lr.league_mean_se));
+  row("league", "shape", num(lr.shape));
+  row("league", "shape_se", num(lr.shape_se));
+  row("league", "home_edge", num(lr.home_edge));
+  row("league", "home_edge_se", num(lr.home_edge_se));
+  row("league", "plain_shape", num(r.plain_shape));
+  row("league", "plain_shape_se", num(r.plain_shape_se));
+  row("league", "shrink_games", num(r.shrink_games));
+  row("league", "shrink_auto", r.shrink_auto ? "true" : "false");
+  row("league", "suggested_shrink_games",
       r.suggested_shrink_games ? fmt::format("{:.1f}", *r.suggested_shrink_games) : "");
-  row("league", "", "family_alpha", num(r.family_alpha));
-  row("league", "", "tests", fmt::format("{}", r.tests));
-  row("league", "", "per_test_alpha", num(r.per_test_alpha));
-  row("league", "", "rejected", fmt::format("{}", r.rejected));
-  for (size_t i = 0; i < r.teams.size(); ++i) {
+  row("league", "family_alpha", num(r.family_alpha));
+  row("league", "tests", fmt::format("{}", r.tests));
+  row("league", "per_test_alpha", num(r.per_test_alpha));
+  row("league", "rejected", fmt::format("{}", r.rejected));
+  std::vector<std::size_t> order;
+  for (const DivisionBlock& b : by_division(s))
+    order.insert(order.end(), b.teams.begin(), b.teams.end());
+  for (const std::size_t i : order) {
     const auto& t = r.teams[i];
-    const std::string& id = s.teams[i].id;
+    team_id = s.teams[i].id;
+    team_name = s.teams[i].name;
     const auto team = [&](std::string_view field, const std::string& value) {
-      row("team", id, field, value);
+      row("team", field, value);
     };
+    team("conference", group_id(s, s.teams[i].conference));
+    team("division", group_id(s, s.teams[i].division));
     team("games", fmt::format("{}", t.games));
     team("wins", fmt::format("{}", t.wins));
     team("losses", fmt::format("{}", t.losses));
@@ -199,21 +324,23 @@ std::string render_csv(const config::Season& s, const FitReport& r, const Proven
     team("df", fmt::format("{}", t.df));
     team("p_value", t.df > 0 ? num(t.p_value) : "");
     team("critical", t.df > 0 ? num(t.critical) : "");
-    team("poor_fit", t.rejected ? "yes" : "no");
+    team("poor_fit", t.rejected ? "true" : "false");
     team("expected_pct", num(t.expected_pct));
     team("expected_wins", num(t.expected_wins));
     team("wins_minus_expected", num(t.wins_minus_expected));
     team("model_runs_scored", num(lr.league_mean * t.offence));
     team("model_runs_allowed", num(lr.league_mean * t.defence));
   }
+  team_id.clear();
+  team_name.clear();
   for (const auto& f : r.families) {
-    const char* name = models::family_name(f.family);
-    row("family", name, "shape", f.family == config::ScoreFamily::kPoisson ? "" : num(f.shape));
-    row("family", name, "parameters", fmt::format("{}", f.parameters));
-    row("family", name, "log_lik", num(f.log_lik, 10));
-    row("family", name, "aic", num(f.aic, 10));
-    row("family", name, "delta_aic", num(f.delta_aic));
-    row("family", name, "converged", f.converged ? "yes" : "no");
+    family = models::family_name(f.family);
+    row("family", "shape", f.family == config::ScoreFamily::kPoisson ? "" : num(f.shape));
+    row("family", "parameters", fmt::format("{}", f.parameters));
+    row("family", "log_lik", num(f.log_lik, 10));
+    row("family", "aic", num(f.aic, 10));
+    row("family", "delta_aic", num(f.delta_aic));
+    row("family", "converged", f.converged ? "true" : "false");
   }
   return out;
 }
@@ -229,6 +356,7 @@ std::string render_json(const config::Season& s, const FitReport& r, const Prove
   j["league"] = {{"name", s.league.name},
                  {"season", s.league.season_label},
                  {"family", models::family_name(r.family)},
+                 {"defaults", r.defaults},
                  {"games_fitted", r.games_fitted},
                  {"league_mean", number(lr.league_mean)},
                  {"league_mean_se", number(lr.league_mean_se)},
@@ -251,9 +379,15 @@ std::string render_json(const config::Season& s, const FitReport& r, const Prove
                           {"rejected", r.rejected},
                           {"min_expected_per_bin", 5}};
   json teams = json::array();
-  for (size_t i = 0; i < r.teams.size(); ++i) {
+  std::vector<std::size_t> order;
+  for (const DivisionBlock& b : by_division(s))
+    order.insert(order.end(), b.teams.begin(), b.teams.end());
+  for (const std::size_t i : order) {
     const auto& t = r.teams[i];
-    teams.push_back({{"team", s.teams[i].id},
+    teams.push_back({{"team_id", s.teams[i].id},
+                     {"team_name", s.teams[i].name},
+                     {"conference", group_id(s, s.teams[i].conference)},
+                     {"division", group_id(s, s.teams[i].division)},
                      {"games", t.games},
                      {"wins", t.wins},
                      {"losses", t.losses},
@@ -343,6 +477,16 @@ void add_fit_command(CLI::App& app) {
       report = models::fit_report(season, opt->alpha);
     } catch (const std::domain_error& e) {
       throw UsageError(fmt::format("{}: cannot fit: {}", opt->file, e.what()));
+    }
+    if (report.defaults) {
+      // The same as `odds` on such a file: it runs on these defaults; say so, exit 0.
+      config::Diagnostic warning;
+      warning.pos.file = opt->file;
+      warning.message = fmt::format(
+          "no game played before {}: nothing to fit; showing the documented defaults the "
+          "simulation runs on",
+          config::format_date(as_of));
+      fmt::print(stderr, "{}\n", warning_line(warning));
     }
     Provenance run = make_provenance(season);
     run.as_of = as_of;

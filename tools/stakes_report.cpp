@@ -235,7 +235,7 @@ std::string write_stakes_csv(const StakesReport& r) {
           "{}",
           i + 1, csv_field(r.teams[static_cast<std::size_t>(r.team)].id), date, g.number,
           csv_field(home), csv_field(away), csv_field(at_home ? away : home),
-          at_home ? "yes" : "no", at_home ? g.home_win_share : 1 - g.home_win_share, p.if_wins,
+          at_home ? "true" : "false", at_home ? g.home_win_share : 1 - g.home_win_share, p.if_wins,
           p.if_loses, p.difference, p.se, d.if_wins, d.if_loses, d.difference, d.se,
           stake_chance_name(r.ranked_by));
     } else {
