@@ -87,7 +87,8 @@ TEST_CASE("worth prints the curves sorted by the value of a win, with the cautio
   std::string line;
   int rows = 0;
   std::getline(lines, line);
-  CHECK(line.rfind("team,added_wins,reachable,shift,shift_unit,division,division_se", 0) == 0);
+  CHECK(line.rfind("team_id,team_name,added_wins,reachable,shift,shift_unit,division,division_se",
+                   0) == 0);
   CHECK(line.find(",run_version,") != std::string::npos);
   const auto commas = std::count(line.begin(), line.end(), ',');
   while (std::getline(lines, line)) {
@@ -116,10 +117,10 @@ TEST_CASE("worth --by-wins gives the plain run's chances by final win total") {
     }
     CHECK(seasons == 2000);
     // The same seasons as the plain run: the berth count is the same.
-    const std::string id = team["team"];
+    const std::string id = team["team_id"];
     bool found = false;
     for (const auto& o : plain["teams"])
-      if (o["id"] == id) {
+      if (o["team_id"] == id) {
         found = true;
         CHECK(berths == Approx(o["postseason"]["p"].get<double>() * 2000).margin(1e-6));
       }

@@ -30,7 +30,6 @@ namespace {
 constexpr std::uint64_t DEFAULT_SEED = 20260101;
 constexpr std::uint64_t DEFAULT_SEASONS = 20000;
 constexpr std::uint64_t MAX_SEASONS = 100'000'000;
-constexpr std::uint64_t MAX_THREADS = 1024;
 constexpr int DEFAULT_SPAN = 5;
 
 struct WorthOptions {
@@ -124,15 +123,8 @@ void add_worth_command(CLI::App& app) {
                                         MAX_SEASONS),
                             std::to_string(DEFAULT_SEASONS)))
       ->check(whole_number(1, MAX_SEASONS));
-  cmd->add_option("--seed", opt->seed,
-                  help_text("Random seed, 0 to 2^64 - 1; the same seed gives the same output for "
-                            "any thread count",
-                            std::to_string(DEFAULT_SEED)))
-      ->check(whole_number(0, std::numeric_limits<std::uint64_t>::max()));
-  cmd->add_option(
-         "--threads", opt->threads,
-         help_text(fmt::format("Worker threads, 0 to {}; 0 uses every core", MAX_THREADS), "0"))
-      ->check(whole_number(0, MAX_THREADS));
+  add_seed_option(*cmd, opt->seed, DEFAULT_SEED);
+  add_threads_option(*cmd, opt->threads);
   cmd->add_option("--span", opt->span,
                   help_text("Added wins from -K to +K, 1 to 20", std::to_string(DEFAULT_SPAN)))
       ->check(whole_number(1, 20));
@@ -140,8 +132,9 @@ void add_worth_command(CLI::App& app) {
                 "Instead of the curves: each team's chances of a berth and of the division by "
                 "final win total, and the totals that give 50% and 90% (one plain run)");
   cmd->add_option("--as-of", opt->as_of,
-                  "As-of date YYYY-MM-DD, the morning before its games: games on or after it "
-                  "count as not yet played (default: the day after the last played game)");
+                  help_text("As-of date YYYY-MM-DD, the morning before its games: games on or "
+                            "after it count as not yet played",
+                            "the day after the last played game"));
   add_model_options(*cmd, opt->model);
   add_report_options(*cmd, opt->report);
   cmd->callback([opt] { run_worth(*opt); });

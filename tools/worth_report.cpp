@@ -198,7 +198,8 @@ std::string write_worth_csv(const WorthReport& r) {
   const std::string run_cells = provenance_csv_cells(r.run);
   if (r.by_wins) {
     out +=
-        "team,final_wins,seasons,postseason,division,postseason_50_from,postseason_90_from,"
+        "team_id,team_name,final_wins,seasons,postseason,division,postseason_50_from,postseason_90_"
+        "from,"
         "division_50_from,division_90_from";
     out += provenance_csv_header() + '\n';
     for (std::size_t t = 0; t < res.teams.size(); ++t) {
@@ -210,8 +211,9 @@ std::string write_worth_csv(const WorthReport& r) {
       for (std::size_t w = 0; w < tv.by_wins.size(); ++w) {
         if (tv.by_wins[w] == 0) continue;
         const auto n = static_cast<double>(tv.by_wins[w]);
-        out += fmt::format("{},{},{},{:.6f},{:.6f},{},{},{},{}", csv_field(r.team_ids[t]), w,
-                           tv.by_wins[w], static_cast<double>(tv.by_wins_postseason[w]) / n,
+        out += fmt::format("{},{},{},{},{:.6f},{:.6f},{},{},{},{}", csv_field(r.team_ids[t]),
+                           csv_field(r.team_names[t]), w, tv.by_wins[w],
+                           static_cast<double>(tv.by_wins_postseason[w]) / n,
                            static_cast<double>(tv.by_wins_division[w]) / n, cell(th.berth50),
                            cell(th.berth90), cell(th.division50), cell(th.division90));
         out += run_cells + '\n';
@@ -219,7 +221,7 @@ std::string write_worth_csv(const WorthReport& r) {
     }
     return out;
   }
-  out += "team,added_wins,reachable,shift,shift_unit";
+  out += "team_id,team_name,added_wins,reachable,shift,shift_unit";
   for (int c = 0; c < CHANCE_COUNT; ++c) out += fmt::format(",{0},{0}_se", CHANCES[c].key);
   for (int c = 0; c < CHANCE_COUNT; ++c)
     out += fmt::format(",per_win_{0},per_win_{0}_se", CHANCES[c].key);
@@ -233,8 +235,8 @@ std::string write_worth_csv(const WorthReport& r) {
                              std::isnan(m.value) ? std::string{} : fmt::format("{:.6f}", m.se));
     }
     for (const engine::WinPoint& p : tv.points) {
-      out += fmt::format("{},{},{},{},{}", csv_field(r.team_ids[t]), p.added_wins,
-                         p.reachable ? "true" : "false",
+      out += fmt::format("{},{},{},{},{},{}", csv_field(r.team_ids[t]), csv_field(r.team_names[t]),
+                         p.added_wins, p.reachable ? "true" : "false",
                          p.reachable ? fmt::format("{:.6f}", p.shift) : std::string{}, unit_key(r));
       for (int c = 0; c < CHANCE_COUNT; ++c) {
         if (!p.reachable) {
@@ -265,8 +267,8 @@ std::string write_worth_json(const WorthReport& r) {
       const engine::TeamWinValue& tv = res.teams[t];
       const Thresholds th = thresholds(tv);
       ordered_json team;
-      team["team"] = r.team_ids[t];
-      team["name"] = r.team_names[t];
+      team["team_id"] = r.team_ids[t];
+      team["team_name"] = r.team_names[t];
       team["wins"] = r.wins[t];
       team["losses"] = r.losses[t];
       team["games_left"] = r.games_left[t];
@@ -294,8 +296,8 @@ std::string write_worth_json(const WorthReport& r) {
   for (std::size_t t : worth_order(r)) {
     const engine::TeamWinValue& tv = res.teams[t];
     ordered_json team;
-    team["team"] = r.team_ids[t];
-    team["name"] = r.team_names[t];
+    team["team_id"] = r.team_ids[t];
+    team["team_name"] = r.team_names[t];
     team["wins"] = r.wins[t];
     team["losses"] = r.losses[t];
     team["games_left"] = r.games_left[t];
