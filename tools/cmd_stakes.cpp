@@ -34,7 +34,6 @@ namespace {
 constexpr std::uint64_t DEFAULT_SEED = 20260101;  // the same default as `standfast odds`
 constexpr std::uint64_t DEFAULT_SEASONS = 100000;
 constexpr std::uint64_t MAX_SEASONS = 1'000'000'000;
-constexpr std::uint64_t MAX_THREADS = 1024;
 constexpr int DEFAULT_DAYS = 3;
 constexpr std::size_t DEFAULT_TOP = 15;
 
@@ -169,15 +168,8 @@ void add_stakes_command(CLI::App& app) {
                   help_text(fmt::format("Simulated seasons, 1 to {}", MAX_SEASONS),
                             std::to_string(DEFAULT_SEASONS)))
       ->check(whole_number(1, MAX_SEASONS));
-  cmd->add_option("--seed", opt->seed,
-                  help_text("Random seed, 0 to 2^64 - 1; the same seed gives the same output for "
-                            "any thread count",
-                            std::to_string(DEFAULT_SEED)))
-      ->check(whole_number(0, std::numeric_limits<std::uint64_t>::max()));
-  cmd->add_option(
-         "--threads", opt->threads,
-         help_text(fmt::format("Worker threads, 0 to {}; 0 uses every core", MAX_THREADS), "0"))
-      ->check(whole_number(0, MAX_THREADS));
+  add_seed_option(*cmd, opt->seed, DEFAULT_SEED);
+  add_threads_option(*cmd, opt->threads);
   cmd->add_option("--as-of", opt->as_of,
                   help_text("As-of date YYYY-MM-DD, the morning before its games: games on or "
                             "after it count as not yet played",
