@@ -143,6 +143,10 @@ CLI::Validator real_number(RealRange r) {
       "");
 }
 
+namespace {
+constexpr int MAX_THREAD_COUNT = 1024;  // --threads
+}  // namespace
+
 CLI::Option* add_seed_option(CLI::App& cmd, std::uint64_t& seed, std::uint64_t default_seed) {
   return cmd
       .add_option("--seed", seed,
@@ -156,8 +160,9 @@ CLI::Option* add_threads_option(CLI::App& cmd, int& threads) {
   return cmd
       .add_option(
           "--threads", threads,
-          help_text(fmt::format("Worker threads, 0 to {}; 0 uses every core", MAX_THREADS), "0"))
-      ->check(whole_number(0, MAX_THREADS));
+          help_text(fmt::format("Worker threads, 0 to {}; 0 uses every core", MAX_THREAD_COUNT),
+                    "0"))
+      ->check(whole_number(0, MAX_THREAD_COUNT));
 }
 
 std::string warning_line(const config::Diagnostic& warning) {

@@ -63,8 +63,8 @@ struct RealRange {
 };
 CLI::Validator real_number(RealRange range);
 
-// --seed and --threads, the same name, help and checks on every command that simulates.
-inline constexpr int MAX_THREADS = 1024;
+// --seed and --threads, the same name, help and checks on every command that simulates
+// (--threads: 0 to 1024, 0 = every core).
 CLI::Option* add_seed_option(CLI::App& cmd, std::uint64_t& seed, std::uint64_t default_seed);
 CLI::Option* add_threads_option(CLI::App& cmd, int& threads);
 
