@@ -69,6 +69,8 @@ std::vector<Command> commands(const Setup& s) {
       {"replay", SMALL + " --every 14 --seasons 200" + h, true, true, true},
       {"movers", SMALL + " --game-seasons 200" + h, true, false, true},
       {"worth", SMALL + " --seasons 200 --span 1", true, true, true},
+      {"stakes", SMALL + " --seasons 200", true, true, true},
+      {"families", SMALL + " --seasons 200", true, true, true},
       {"backtest", "--runs 2 --seasons 100", false, true, true},
   };
 }
