@@ -126,19 +126,8 @@ void run_families(const FamiliesOptions& opt) {
   set_model(report.run, season, plans.front()->shape);
   report.run.seed = opt.seed;
   report.run.seasons = comparison.baseline.seasons;
-  std::string text;
-  switch (format) {
-    case Format::kTable:
-      text = write_families_table(report);
-      break;
-    case Format::kCsv:
-      text = write_families_csv(report);
-      break;
-    case Format::kJson:
-      text = write_families_json(report);
-      break;
-  }
-  write_output(opt.report.output, text);
+  write_report(opt.report.output, format, report, &write_families_table, &write_families_csv,
+               &write_families_json);
 }
 
 }  // namespace

@@ -109,19 +109,8 @@ void run_odds(const OddsOptions& opt) {
   if (history) history->record(history_run(odds, season));
   const OddsReport& report = odds.report;
 
-  std::string text;
-  switch (format) {
-    case Format::kTable:
-      text = write_odds_table(report);
-      break;
-    case Format::kCsv:
-      text = write_odds_csv(report);
-      break;
-    case Format::kJson:
-      text = write_odds_json(report);
-      break;
-  }
-  write_output(opt.report.output, text);
+  write_report(opt.report.output, format, report, &write_odds_table, &write_odds_csv,
+               &write_odds_json);
 }
 
 }  // namespace

@@ -124,19 +124,8 @@ void run_stakes(const StakesOptions& opt) {
   set_model(report.run, season, shape);
   report.run.seed = opt.seed;
   report.run.seasons = result.odds.seasons;
-  std::string text;
-  switch (format) {
-    case Format::kTable:
-      text = write_stakes_table(report);
-      break;
-    case Format::kCsv:
-      text = write_stakes_csv(report);
-      break;
-    case Format::kJson:
-      text = write_stakes_json(report);
-      break;
-  }
-  write_output(opt.report.output, text);
+  write_report(opt.report.output, format, report, &write_stakes_table, &write_stakes_csv,
+               &write_stakes_json);
 }
 
 }  // namespace

@@ -107,19 +107,8 @@ void run_whatif(const WhatifOptions& opt) {
     report.names.push_back(set.scenarios[k].name);
     report.models.push_back(model_used(*plans[k]));
   }
-  std::string text;
-  switch (format) {
-    case Format::kTable:
-      text = write_scenario_table(report);
-      break;
-    case Format::kCsv:
-      text = write_scenario_csv(report);
-      break;
-    case Format::kJson:
-      text = write_scenario_json(report);
-      break;
-  }
-  write_output(opt.report.output, text);
+  write_report(opt.report.output, format, report, &write_scenario_table, &write_scenario_csv,
+               &write_scenario_json);
 }
 
 }  // namespace

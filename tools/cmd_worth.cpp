@@ -93,19 +93,8 @@ void run_worth(const WorthOptions& opt) {
     report.losses.push_back(records[t].losses);
     report.games_left.push_back(records[t].remaining);
   }
-  std::string text;
-  switch (format) {
-    case Format::kTable:
-      text = write_worth_table(report);
-      break;
-    case Format::kCsv:
-      text = write_worth_csv(report);
-      break;
-    case Format::kJson:
-      text = write_worth_json(report);
-      break;
-  }
-  write_output(opt.report.output, text);
+  write_report(opt.report.output, format, report, &write_worth_table, &write_worth_csv,
+               &write_worth_json);
 }
 
 }  // namespace

@@ -36,6 +36,16 @@ void write_file(const std::string& path, std::string_view content,
 // Output formats shared by the commands.
 enum class Format { kTable, kCsv, kJson };
 
+// Writes `report` to `path` (write_output) in `format`, by the writer of that format.
+template <class Report>
+void write_report(const std::string& path, Format format, const Report& report,
+                  std::string (*table)(const Report&), std::string (*csv)(const Report&),
+                  std::string (*json)(const Report&)) {
+  write_output(path, format == Format::kTable ? table(report)
+                     : format == Format::kCsv ? csv(report)
+                                              : json(report));
+}
+
 // Parses "table", "csv" or "json"; throws UsageError otherwise.
 Format parse_format(const std::string& name);
 
