@@ -132,6 +132,10 @@ struct ModelSpec {
   bool shrink_auto = false;
   std::optional<LopsidedRule> lopsided;  // empty = off (the default)
   bool strength_uncertainty = true;      // draw true strengths per simulated season
+  // A fitted shape from the adjusted profile likelihood (models/joint_fit.h, adjust_shape);
+  // false = the plain maximum-likelihood shape. Not a season-file key: for tests that compare
+  // with plain maximum-likelihood references.
+  bool adjusted_shape = true;
   SourcePos pos;
 };
 

@@ -76,6 +76,7 @@ FitReport fit_report(const config::Season& season, double family_alpha) {
                         : season.model.family;
   JointOptions base;
   base.home_edge = season.model.home_edge;
+  base.adjust_shape = season.model.adjusted_shape;  // as the ratings' own fit (rf.mle)
   base.prior_precision = rf.shrink_games > 0.0 ? 1e-9 : 0.0;
   const auto shape_for = [&](config::ScoreFamily f) -> std::optional<double> {
     return f == season.model.family && f != config::ScoreFamily::kPoisson ? season.model.shape

@@ -63,27 +63,43 @@ class Problem {
     // Sparsity pattern (lower triangle, every diagonal included), fixed for the whole fit.
     std::vector<Eigen::Triplet<double>> t;
     for (int k = 0; k < l_.q; ++k) t.emplace_back(k, k, 0.0);
-    for (const Side& s : sides_) {
+    for (std::size_t i = 0; i < sides_.size(); ++i) {
+      const Side& s = sides_[i];
+      if (s.extra_innings && s.at_home && i + 1 < sides_.size() && sides_[i + 1].extra_innings &&
+          !sides_[i + 1].at_home) {
+        ties_.push_back(tie_game(i));
+        ++i;
+        continue;
+      }
+      singles_.push_back(i);
       int idx[5];
       const int m = indexes(s, idx);
       for (int a = 0; a < m; ++a)
         for (int b = 0; b < m; ++b)
           if (idx[a] > idx[b]) t.emplace_back(idx[a], idx[b], 0.0);
     }
+    for (const TieGame& g : ties_)
+      for (int a = 0; a < g.m; ++a)
+        for (int b = 0; b < g.m; ++b)
+          if (g.idx[a] > g.idx[b]) t.emplace_back(g.idx[a], g.idx[b], 0.0);
     if (l_.shape >= 0)
       for (int k = 0; k < l_.shape; ++k) t.emplace_back(l_.shape, k, 0.0);
     pattern_.resize(l_.q, l_.q);
     pattern_.setFromTriplets(t.begin(), t.end());
     pattern_.makeCompressed();
     // Position of each side's entries in the value array.
-    slot_.reserve(sides_.size() * 15);
-    for (const Side& s : sides_) {
+    slot_.reserve(singles_.size() * 10 + ties_.size() * 28);
+    for (std::size_t i : singles_) {
       int idx[5];
-      const int m = indexes(s, idx);
+      const int m = indexes(sides_[i], idx);
       for (int a = 0; a < m; ++a)
         for (int b = 0; b < m; ++b)
           if (idx[a] >= idx[b]) slot_.push_back(position(idx[a], idx[b]));
     }
+    for (const TieGame& g : ties_)
+      for (int a = 0; a < g.m; ++a)
+        for (int b = 0; b < g.m; ++b)
+          if (g.idx[a] >= g.idx[b]) slot_.push_back(position(g.idx[a], g.idx[b]));
   }
 
   int q() const { return l_.q; }
@@ -120,7 +136,8 @@ class Problem {
     if (grad) grad->assign(l_.q, 0.0);
     if (hess) hess->assign(pattern_.nonZeros(), 0.0);
     std::size_t slot = 0;
-    for (const Side& s : sides_) {
+    for (std::size_t i : singles_) {
+      const Side& s = sides_[i];
       const LogLikTerms t = score_loglik(opt_.family, s.y, eta(x, s), shape);
       ll += t.value;
       if (!grad && !hess) continue;
@@ -131,6 +148,23 @@ class Problem {
         if (!hess) continue;
         for (int b = 0; b < m; ++b)
           if (idx[a] >= idx[b]) (*hess)[slot_[slot++]] -= t.d2;
+      }
+    }
+    for (const TieGame& g : ties_) {
+      const TieTerms t =
+          tie_loglik(opt_.family, eta(x, sides_[g.side]), eta(x, sides_[g.side + 1]), shape);
+      ll += t.value;
+      if (!grad && !hess) continue;
+      for (int a = 0; a < g.m; ++a) {
+        const bool ha = g.mask[a] & 1, aa = g.mask[a] & 2;
+        if (grad) (*grad)[g.idx[a]] -= (ha ? t.dh : 0.0) + (aa ? t.da : 0.0);
+        if (!hess) continue;
+        for (int b = 0; b < g.m; ++b) {
+          if (g.idx[a] < g.idx[b]) continue;
+          const bool hb = g.mask[b] & 1, ab = g.mask[b] & 2;
+          (*hess)[slot_[slot++]] -= (ha && hb ? t.dhh : 0.0) + (aa && ab ? t.daa : 0.0) +
+                                    ((ha && ab) + (aa && hb)) * t.dha;
+        }
       }
     }
     double prior = 0.0;
@@ -187,12 +221,41 @@ class Problem {
     return m;
   }
 
+  // A game that went to extra innings: the union of the parameters of its two sides, each with
+  // a mask of the side whose eta it enters (1 = home, 2 = away, 3 = both: the league mean).
+  struct TieGame {
+    std::size_t side = 0;  // the home side; the away side follows
+    int m = 0;
+    int idx[7];
+    unsigned char mask[7];
+  };
+  TieGame tie_game(std::size_t i) const {
+    TieGame g;
+    g.side = i;
+    for (int s = 0; s < 2; ++s) {
+      int idx[5];
+      const int m = indexes(sides_[i + s], idx);
+      for (int k = 0; k < m; ++k) {
+        int at = 0;
+        while (at < g.m && g.idx[at] != idx[k]) ++at;
+        if (at == g.m) {
+          g.idx[g.m] = idx[k];
+          g.mask[g.m++] = 0;
+        }
+        g.mask[at] |= static_cast<unsigned char>(1 << s);
+      }
+    }
+    return g;
+  }
+
   const std::vector<Side>& sides_;
   const Layout& l_;
   JointOptions opt_;
   double fixed_shape_, lo_, hi_, fixed_home_ = 0.0;
   SparseMatrix pattern_;
-  std::vector<int> slot_;
+  std::vector<int> slot_;             // single sides' entries, then the tie games'
+  std::vector<std::size_t> singles_;  // sides fitted by their own score
+  std::vector<TieGame> ties_;         // games fitted as a tie after regulation
 };
 
 // Solves (S - U U^T) x = b for the sparse factor of S and the rank-one prior terms
@@ -247,6 +310,15 @@ class Solver {
     }
     const double u = std::sqrt(p_.prior() / l.n);
     return {u * s[0], u * s[1]};
+  }
+
+  // log det (S - U U^T) = log det S + log det K of the last successful factor().
+  double log_det() const {
+    const SparseMatrix l = factor_.matrixL();
+    double d = 0.0;
+    for (int j = 0; j < l.outerSize(); ++j) d += 2.0 * std::log(l.valuePtr()[l.outerIndexPtr()[j]]);
+    if (rank_ > 0) d += std::log(k_[0][0] * k_[1][1] - k_[0][1] * k_[1][0]);
+    return d;
   }
 
   const Factor& sparse() const { return factor_; }
@@ -398,6 +470,44 @@ StrengthSampler make_sampler(const Solver& solver, const Layout& l) {
 
 bool has_shape(config::ScoreFamily f) { return f != config::ScoreFamily::kPoisson; }
 
+// One Newton step from the maximum-likelihood log shape s^ on the adjusted profile
+// log-likelihood of Cox and Reid (1987, JRSS-B 49(1) 1-39, eq. 4):
+//   l_A(s) = l_p(s) - 1/2 log det j_rr(s),
+// j_rr the observed information of all other parameters (prior included), taken at their
+// estimates at s^ (first order, as the ratings and the shape are close to orthogonal). Since
+// l_p'(s^) = 0, the step is s* = s^ - 1/2 var(s^) d/ds log det j_rr, the derivative by central
+// differences. Returns s^ when an information matrix is not positive definite. var_shape: the
+// variance of s^ (0 when not positive definite).
+double adjusted_log_shape(const Problem& p, const std::vector<double>& x, double lo, double hi,
+                          double& var_shape) {
+  var_shape = 0.0;
+  const int s = p.layout().shape;
+  const int q = p.q();
+  std::vector<double> g, h;
+  p.derivatives(x, g, h);
+  Solver full(p);
+  if (!full.factor(h, 0.0)) return x[s];
+  Eigen::VectorXd e = Eigen::VectorXd::Zero(q);
+  e[s] = 1.0;
+  const double var_s = full.solve(e)[s];
+  var_shape = var_s;
+  auto log_det = [&](double log_shape, double& out) {
+    std::vector<double> hs;
+    p.value(x, std::exp(log_shape), nullptr, &hs);
+    hs[p.position(s, s)] = 1.0;  // the shape's own row left out: log det j_rr
+    Solver rest(p);
+    if (!rest.factor(hs, 0.0)) return false;
+    out = rest.log_det();
+    return true;
+  };
+  const double step = 1e-4;
+  double up = 0.0, down = 0.0;
+  if (!(var_s > 0.0) || !log_det(x[s] + step, up) || !log_det(x[s] - step, down)) return x[s];
+  const double slope = (up - down) / (2.0 * step);
+  const double adjusted = x[s] - 0.5 * var_s * slope;
+  return std::isfinite(adjusted) ? std::clamp(adjusted, lo, hi) : x[s];
+}
+
 }  // namespace
 
 double information_per_side(config::ScoreFamily family, double mean_runs, double shape) {
@@ -534,6 +644,21 @@ JointFit fit_joint(const std::vector<Side>& sides, int n, const JointOptions& o)
   }
   problem.value(x, shape, nullptr, nullptr, &fit.log_lik);
   fit.free_parameters = 1 + (o.home_edge ? 0 : 1) + 2 * (n - 1) + (shape_free ? 1 : 0);
+  if (shape_free && o.adjust_shape && r.converged) {
+    // The other parameters refitted at the adjusted shape; the shape keeps the standard error
+    // of the maximum-likelihood fit.
+    double var_s = 0.0;
+    JointOptions fixed = o;
+    fixed.adjust_shape = false;
+    fixed.shape = std::exp(adjusted_log_shape(problem, x, lo, hi, var_s));
+    fixed.start = &fit;
+    JointFit adjusted = fit_joint(sides, n, fixed);
+    adjusted.free_parameters = fit.free_parameters;
+    adjusted.iterations += fit.iterations;
+    adjusted.converged = adjusted.converged && fit.converged;
+    if (o.covariance) adjusted.variance[adjusted.log_shape_index()] = var_s;
+    return adjusted;
+  }
 
   if (o.covariance) {
     // Observed information in corner form, S - U U^T, and the variance t^T (S - U U^T)^-1 t of

@@ -3,6 +3,8 @@
 //                           + [batting at home] log H + side.offset
 // with the sum of log offence and the sum of log defence over the teams fixed at 0, and the
 // family's shape (Weibull gamma or negative-binomial size) shared by the league.
+// A game that went to extra innings (Side::extra_innings on both its sides) enters as the
+// chance of a tie after regulation (tie_loglik, models/likelihood.h) instead of two scores.
 // Optional shrinkage: a normal prior N(0, 1/prior_precision) on every log offence and log
 // defence (see ratings.h for how the precision follows from shrink_games).
 // Method: a damped Newton's method over (ratings, log shape), with the analytic gradient and
@@ -29,10 +31,14 @@ namespace standfast::models {
 
 struct JointOptions {
   config::ScoreFamily family = config::ScoreFamily::kWeibull;
-  std::optional<double> shape;             // fixed shape; empty = fitted (ignored for Poisson)
-  std::optional<double> home_edge;         // fixed home multiplier; empty = fitted
-  double prior_precision = 0.0;            // on each log rating; 0 = no shrinkage
-  bool covariance = true;                  // compute the standard errors and the strength sampler
+  std::optional<double> shape;      // fixed shape; empty = fitted (ignored for Poisson)
+  std::optional<double> home_edge;  // fixed home multiplier; empty = fitted
+  double prior_precision = 0.0;     // on each log rating; 0 = no shrinkage
+  bool covariance = true;           // compute the standard errors and the strength sampler
+  // A fitted shape: the maximum of the adjusted profile likelihood (Cox and Reid 1987) instead
+  // of the plain likelihood. The plain estimate is biased upward when many ratings are fitted
+  // from few games (the ratings absorb part of the scores' spread); see joint_fit.cpp.
+  bool adjust_shape = false;
   const struct JointFit* start = nullptr;  // optional starting point (same teams and family)
 };
 

@@ -60,6 +60,7 @@ std::vector<Side> played_sides(const config::Season& season) {
         side.y = opp + lop->margin + lop->weight * (side.runs - opp - lop->margin);
       }
       side.offset = offset;
+      side.extra_innings = !g.shortened && g.innings > regulation;
       out.push_back(side);
     }
   }
@@ -275,6 +276,112 @@ LogLikTerms score_loglik(config::ScoreFamily family, double y, double eta, doubl
       break;
   }
   throw std::domain_error("score_loglik: family log5 has no score likelihood");
+}
+
+namespace {
+
+// Sums of p_h(k) p_a(k) weighted by 1, the eta derivatives and their products (TieTerms before
+// the division by T). Poisson and negative binomial: from score_loglik per score.
+struct TieSums {
+  double t = 0.0, th = 0.0, ta = 0.0, thh = 0.0, taa = 0.0, tha = 0.0;
+  void add(double ph, double ph1, double ph2, double pa, double pa1, double pa2) {
+    t += ph * pa;
+    th += ph1 * pa;
+    ta += ph * pa1;
+    thh += ph2 * pa;
+    taa += ph * pa2;
+    tha += ph1 * pa1;
+  }
+};
+
+// The discretised Weibull pmf of every score with its first two derivatives in eta, score by
+// score: with t_k = (k/a)^g and E_k = exp(-t_k), P(k) = E_k - E_{k+1}; dE/da = E g t / a and
+// d2E/da2 = E (g / a^2)(g t^2 - (g + 1) t), chained to eta through a(eta). One pow and one exp
+// per score (weibull_bin needs two of each and a log).
+class WeibullScores {
+ public:
+  WeibullScores(double eta, double g) : g_(g) {
+    const double mu = std::exp(eta);
+    const ScaleSolution sol = solve_scale(mu, g);
+    a_ = sol.a;
+    ae_ = mu / sol.dm;
+    aee_ = ae_ - ae_ * ae_ * sol.dmm / sol.dm;
+    ok_ = std::isfinite(a_) && a_ > 0.0;
+    if (ok_) edge(0.0, e0_, a0_, b0_);
+  }
+  bool ok() const { return ok_; }
+  // P(k), dP/deta, d2P/deta2 for k = 0, 1, 2, ... in turn.
+  void next(int k, double& p, double& p1, double& p2) {
+    double e1, a1, b1;
+    edge(k + 1.0, e1, a1, b1);
+    p = e0_ - e1;
+    const double pa = a0_ - a1, paa = b0_ - b1;
+    p1 = pa * ae_;
+    p2 = paa * ae_ * ae_ + pa * aee_;
+    e0_ = e1, a0_ = a1, b0_ = b1;
+  }
+
+ private:
+  void edge(double y, double& e, double& da, double& daa) const {
+    const double t = y > 0.0 ? std::pow(y / a_, g_) : 0.0;
+    e = std::exp(-t);
+    da = e * g_ * t / a_;
+    daa = e * (g_ / (a_ * a_)) * (g_ * t * t - (g_ + 1.0) * t);
+  }
+  double g_, a_ = 0.0, ae_ = 0.0, aee_ = 0.0;
+  bool ok_ = false;
+  double e0_ = 1.0, a0_ = 0.0, b0_ = 0.0;
+};
+
+}  // namespace
+
+TieTerms tie_loglik(config::ScoreFamily family, double eta_home, double eta_away, double shape) {
+  if (family == config::ScoreFamily::kLog5)
+    throw std::domain_error("tie_loglik: family log5 has no score likelihood");
+  const double nan = std::numeric_limits<double>::quiet_NaN();
+  const TieTerms undefined{nan, nan, nan, nan, nan, nan};
+  // Past both means the terms fall off faster than geometrically; stop when they no longer
+  // change the sum (the fits keep the means below e^10 times the league's, so this ends).
+  const double beyond = std::max(std::exp(eta_home), std::exp(eta_away));
+  TieSums s;
+  if (family == config::ScoreFamily::kWeibull) {
+    WeibullScores home(eta_home, shape), away(eta_away, shape);
+    if (!home.ok() || !away.ok()) return undefined;
+    for (int k = 0; k < 1000000; ++k) {
+      double ph, ph1, ph2, pa, pa1, pa2;
+      home.next(k, ph, ph1, ph2);
+      away.next(k, pa, pa1, pa2);
+      s.add(ph, ph1, ph2, pa, pa1, pa2);
+      if (k > beyond && !(ph * pa > 1e-17 * s.t)) break;
+    }
+  } else {
+    // P(0) from score_loglik, then P(k + 1) = P(k) ratio(k); log P's eta derivatives in closed
+    // form (as in score_loglik): Poisson d1 = k - mu, d2 = -mu; negative binomial
+    // d1 = r (k - mu) / (r + mu), d2 = -(k + r) r mu / (r + mu)^2.
+    const bool nb = family == config::ScoreFamily::kNegativeBinomial;
+    const double r = shape, mh = std::exp(eta_home), ma = std::exp(eta_away);
+    double ph = std::exp(score_loglik(family, 0, eta_home, shape).value);
+    double pa = std::exp(score_loglik(family, 0, eta_away, shape).value);
+    for (int k = 0; k < 1000000; ++k) {
+      const double h1 = nb ? r * (k - mh) / (r + mh) : k - mh;
+      const double h2 = nb ? -(k + r) * r * mh / ((r + mh) * (r + mh)) : -mh;
+      const double a1 = nb ? r * (k - ma) / (r + ma) : k - ma;
+      const double a2 = nb ? -(k + r) * r * ma / ((r + ma) * (r + ma)) : -ma;
+      s.add(ph, ph * h1, ph * (h2 + h1 * h1), pa, pa * a1, pa * (a2 + a1 * a1));
+      if (k > beyond && !(ph * pa > 1e-17 * s.t)) break;
+      ph *= nb ? (k + r) / (k + 1.0) * mh / (r + mh) : mh / (k + 1.0);
+      pa *= nb ? (k + r) / (k + 1.0) * ma / (r + ma) : ma / (k + 1.0);
+    }
+  }
+  if (!(s.t > 0.0) || !std::isfinite(s.t)) return undefined;
+  TieTerms r;
+  r.value = std::log(s.t);
+  r.dh = s.th / s.t;
+  r.da = s.ta / s.t;
+  r.dhh = s.thh / s.t - r.dh * r.dh;
+  r.daa = s.taa / s.t - r.da * r.da;
+  r.dha = s.tha / s.t - r.dh * r.da;
+  return r;
 }
 
 }  // namespace standfast::models

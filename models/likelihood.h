@@ -18,6 +18,11 @@ struct Side {
   double y = 0.0;       // runs used by the fit: `runs`, down-weighted in lopsided games
   double offset = 0.0;  // log(venue run factor) + log(innings / regulation) for shortened games
   bool won = false;     // this side's team won the game
+  // The game went past regulation (innings stated and more than the league's regulation
+  // innings): its regulation score was a tie, and the joint fit takes it as such (tie_loglik)
+  // instead of the final score, whose extra-inning runs no family models. Both sides of such a
+  // game carry the flag and follow each other, home side first.
+  bool extra_innings = false;
 };
 
 // The two sides of every played game of the season, in game order (home side first).
@@ -40,6 +45,17 @@ struct LogLikTerms {
 // binomial size; ignored for Poisson). For the Weibull the scale is solved so that the
 // discretised mean equals exp(eta) (see weibull_for_mean).
 LogLikTerms score_loglik(config::ScoreFamily family, double y, double eta, double shape);
+
+// Log-probability that the two sides of a game are level after regulation,
+//   log T = log sum_k P(k | eta_home) P(k | eta_away),
+// and its derivatives with respect to the two eta = log(expected runs), cross term included:
+// the likelihood of a game known only to have gone to extra innings.
+struct TieTerms {
+  double value = 0.0;
+  double dh = 0.0, da = 0.0;               // d/d eta_home, d/d eta_away
+  double dhh = 0.0, daa = 0.0, dha = 0.0;  // second derivatives
+};
+TieTerms tie_loglik(config::ScoreFamily family, double eta_home, double eta_away, double shape);
 
 // Discretised Weibull log P(y) = log(exp(-(y/a)^g) - exp(-((y+1)/a)^g)) and its derivatives
 // with respect to log a (the plain per-team fit works on the scale directly).

@@ -108,6 +108,7 @@ RatingsFit fit_ratings_detail(const config::Season& season) {
   o.family = spec.family;
   o.shape = spec.family == config::ScoreFamily::kPoisson ? std::nullopt : spec.shape;
   o.home_edge = spec.home_edge;
+  o.adjust_shape = spec.adjusted_shape;
   // The maximum-likelihood fit (a vanishing prior keeps a team without games defined).
   o.prior_precision = spec.shrink_games > 0.0 || spec.shrink_auto ? 1e-9 : 0.0;
   out.mle = fit_joint(out.sides, n, o);

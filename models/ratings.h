@@ -7,9 +7,11 @@
 //   x home_edge (when batting at home) x innings/regulation (shortened games only),
 // and the family's shape (Weibull gamma, negative-binomial size) shared by the league.
 // Offence and defence are normalised so that their geometric means over the teams are 1.
-// Games used: Season::games with played == true. Final scores are used as they are: the runs of
-// extra innings count (the regulation score is not known from a final score). Shortened games
-// count with their expected runs scaled by innings played / regulation innings.
+// Games used: Season::games with played == true. A game whose innings exceed the regulation
+// innings enters as a tie after regulation (models/likelihood.h, tie_loglik); other games by
+// their final score. Shortened games count with their expected runs scaled by innings played /
+// regulation innings. A fitted shape is the adjusted one (models/joint_fit.h, adjust_shape)
+// unless ModelSpec::adjusted_shape is false.
 // Family log5: no scores are modelled; every team gets offence = defence = 1 with zero
 // uncertainty, and the engine takes win percentages from Season::overrides.
 #ifndef STANDFAST_MODELS_RATINGS_H

@@ -3,6 +3,7 @@
 // (themselves checked against Boost.Math and SciPy in models_score_dist_test.cpp) and against
 // std::lgamma closed forms; derivatives against central finite differences (truncation error
 // O(h^2) with h = 1e-4, so agreement to about 1e-6 relative is expected).
+#include <boost/math/special_functions/bessel.hpp>
 #include <catch2/catch.hpp>
 #include <cmath>
 
@@ -49,6 +50,54 @@ TEST_CASE("derivatives with respect to log mean match finite differences") {
     const LogLikTerms m = weibull_loglik_log_scale(y, 1.6 - h, 1.8);
     CHECK(t.d1 == Approx((p.value - m.value) / (2 * h)).epsilon(1e-6));
     CHECK(t.d2 == Approx((p.d1 - m.d1) / (2 * h)).epsilon(1e-5));
+  }
+}
+
+TEST_CASE("the chance of a tie after regulation: Skellam at zero, and direct sums") {
+  // Poisson: the difference of two independent Poisson counts is Skellam distributed (Skellam
+  // 1946, JRSS 109(3) 296), P(X = Y) = exp(-(m1 + m2)) I_0(2 sqrt(m1 m2)); I_0 from Boost.Math.
+  for (double m1 : {0.5, 3.0, 4.5, 9.0}) {
+    for (double m2 : {1.0, 4.5, 6.2}) {
+      const double closed =
+          std::exp(-(m1 + m2)) * boost::math::cyl_bessel_i(0, 2.0 * std::sqrt(m1 * m2));
+      const TieTerms t = tie_loglik(ScoreFamily::kPoisson, std::log(m1), std::log(m2), 0.0);
+      CHECK(std::exp(t.value) == Approx(closed).epsilon(1e-12));
+    }
+  }
+  // Weibull and negative binomial: the sum of products of the pmfs of models/score_dist.h
+  // (checked against Boost.Math and SciPy in models_score_dist_test.cpp).
+  for (double m1 : {2.0, 4.5}) {
+    for (double m2 : {3.5, 8.0}) {
+      double w = 0.0, nb = 0.0;
+      const DiscreteWeibull d1 = weibull_for_mean(m1, 1.8), d2 = weibull_for_mean(m2, 1.8);
+      for (int k = 0; k < 400; ++k) {
+        w += pmf(d1, k) * pmf(d2, k);
+        nb += pmf(NegativeBinomial{m1, 6.5}, k) * pmf(NegativeBinomial{m2, 6.5}, k);
+      }
+      CHECK(tie_loglik(ScoreFamily::kWeibull, std::log(m1), std::log(m2), 1.8).value ==
+            Approx(std::log(w)).epsilon(1e-8));
+      CHECK(tie_loglik(ScoreFamily::kNegativeBinomial, std::log(m1), std::log(m2), 6.5).value ==
+            Approx(std::log(nb)).epsilon(1e-11));
+    }
+  }
+}
+
+TEST_CASE("the tie's derivatives match finite differences, cross term included") {
+  const double h = 1e-4;
+  for (auto f : {ScoreFamily::kWeibull, ScoreFamily::kNegativeBinomial, ScoreFamily::kPoisson}) {
+    const double shape = f == ScoreFamily::kNegativeBinomial ? 7.0 : 1.7;
+    for (double eh : {0.4, 1.5, 2.1}) {
+      for (double ea : {0.9, 1.5}) {
+        const TieTerms t = tie_loglik(f, eh, ea, shape);
+        const TieTerms hp = tie_loglik(f, eh + h, ea, shape), hm = tie_loglik(f, eh - h, ea, shape);
+        const TieTerms ap = tie_loglik(f, eh, ea + h, shape), am = tie_loglik(f, eh, ea - h, shape);
+        CHECK(t.dh == Approx((hp.value - hm.value) / (2 * h)).epsilon(1e-6).margin(1e-7));
+        CHECK(t.da == Approx((ap.value - am.value) / (2 * h)).epsilon(1e-6).margin(1e-7));
+        CHECK(t.dhh == Approx((hp.dh - hm.dh) / (2 * h)).epsilon(1e-5).margin(1e-6));
+        CHECK(t.daa == Approx((ap.da - am.da) / (2 * h)).epsilon(1e-5).margin(1e-6));
+        CHECK(t.dha == Approx((ap.dh - am.dh) / (2 * h)).epsilon(1e-5).margin(1e-6));
+      }
+    }
   }
 }
 
@@ -113,9 +162,14 @@ TEST_CASE("played sides: venue, shortened games, extra innings and lopsided weig
   CHECK(sides[1].offset == Approx(std::log(1.1)));
   // Shortened after 6 of 9 innings: exposure 6/9.
   CHECK(sides[2].offset == Approx(std::log(6.0 / 9.0)));
-  // Extra innings: final score used as it is, no offset.
+  // Extra innings: final score kept, no offset, both sides flagged (the joint fit takes the
+  // regulation score as a tie); regulation games are not flagged.
   CHECK(sides[4].runs == 5);
   CHECK(sides[4].offset == 0.0);
+  CHECK(sides[4].extra_innings);
+  CHECK(sides[5].extra_innings);
+  CHECK_FALSE(sides[0].extra_innings);
+  CHECK_FALSE(sides[2].extra_innings);
   CHECK(sides[0].y == 12.0);
   // Lopsided: margin 4, weight 0.5: 12-2 leads by 10 > 4, so y = 2 + 4 + 0.5 * 6 = 9.
   s.model.lopsided = standfast::config::LopsidedRule{4, 0.5};
