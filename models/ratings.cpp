@@ -6,6 +6,7 @@
 #include <stdexcept>
 
 #include "models/fit_report.h"
+#include "models/shrink_spread.h"
 
 namespace standfast::models {
 
@@ -128,6 +129,11 @@ RatingsFit fit_ratings_detail(const config::Season& season) {
   r = from_fit(used, spec.family);
   r.games_fitted = games;
   r.shrink_games = out.shrink_games;
+  if (spec.shrink_auto && spec.strength_uncertainty) {
+    // The estimated shrinkage's own uncertainty, one more draw per simulated season.
+    out.spread = shrink_spread(*out.mle);
+    add_shrink_spread(r.strengths, *out.mle, out.spread.sd_kept);
+  }
   return out;
 }
 

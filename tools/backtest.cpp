@@ -3,6 +3,7 @@
 #include <fmt/core.h>
 
 #include <algorithm>
+#include <boost/math/distributions/chi_squared.hpp>
 #include <cmath>
 #include <cstdlib>
 #include <map>
@@ -211,6 +212,27 @@ std::vector<ReliabilityBin> reliability_table(const std::vector<double>& forecas
   return bins;
 }
 
+CalibrationTest calibration_test(const std::vector<double>& forecast,
+                                 const std::vector<int>& outcome) {
+  std::vector<double> expected(10, 0.0), observed(10, 0.0), var(10, 0.0);
+  for (std::size_t i = 0; i < forecast.size(); ++i) {
+    const int b = std::clamp(static_cast<int>(std::floor(forecast[i] * 10.0)), 0, 9);
+    expected[b] += forecast[i];
+    observed[b] += outcome[i];
+    var[b] += forecast[i] * (1.0 - forecast[i]);
+  }
+  CalibrationTest t;
+  for (int b = 0; b < 10; ++b) {
+    if (!(var[b] > 0.0)) continue;
+    t.chi_square += (observed[b] - expected[b]) * (observed[b] - expected[b]) / var[b];
+    ++t.df;
+  }
+  if (t.df > 0)
+    t.p_value =
+        boost::math::cdf(boost::math::complement(boost::math::chi_squared(t.df), t.chi_square));
+  return t;
+}
+
 BacktestResult run_backtest(const BacktestOptions& o) {
   if (o.runs < 1 || o.runs > 100000)
     throw UsageError(fmt::format("--runs: expected 1 to 100000, got {}", o.runs));
@@ -296,6 +318,10 @@ BacktestResult run_backtest(const BacktestOptions& o) {
     s.brier = brier_score(forecast[e], outcome[e]);
     s.naive_brier = brier_score(naive[e], outcome[e]);
     s.skill = s.naive_brier > 0 ? 1.0 - s.brier / s.naive_brier : 0.0;
+    const CalibrationTest c = calibration_test(forecast[e], outcome[e]);
+    s.chi_square = c.chi_square;
+    s.df = c.df;
+    s.p_value = c.p_value;
     res.events.push_back(s);
   }
   return res;
@@ -316,9 +342,10 @@ std::string write_backtest_table(const BacktestResult& r) {
   for (const EventScore& e : r.events) {
     s += fmt::format(
         "\n{}: Brier {:.4f}, naive forecast from the standings {:.4f}, skill {:+.3f}; {} "
-        "forecasts, mean {:.4f}, observed {:.4f}\n",
+        "forecasts, mean {:.4f}, observed {:.4f}\n  calibration over the table: chi-square "
+        "{:.2f} on {} df, p = {:.3f}\n",
         e.event, e.brier, e.naive_brier, e.skill, group_digits(e.forecasts), e.mean_forecast,
-        e.observed);
+        e.observed, e.chi_square, e.df, e.p_value);
     s += fmt::format("  {:<9} {:>7} {:>9} {:>9}  {:<15} {}\n", "forecast", "count", "mean",
                      "observed", "95% if calibrated", "");
     for (const ReliabilityBin& b : e.bins) {
@@ -334,14 +361,16 @@ std::string write_backtest_table(const BacktestResult& r) {
 std::string write_backtest_csv(const BacktestResult& r) {
   std::string s =
       "event,bin_lo,bin_hi,forecasts,mean_forecast,observed,interval_lo,interval_hi,inside,"
-      "brier,naive_brier,skill,forecast_family,forecast_shape\n";
+      "brier,naive_brier,skill,chi_square,df,p_value,forecast_family,forecast_shape\n";
   for (const EventScore& e : r.events) {
     for (const ReliabilityBin& b : e.bins) {
       s += fmt::format(
-          "{},{:.1f},{:.1f},{},{:.6f},{:.6f},{:.6f},{:.6f},{},{:.6f},{:.6f},{:.6f},{},{}\n",
+          "{},{:.1f},{:.1f},{},{:.6f},{:.6f},{:.6f},{:.6f},{},{:.6f},{:.6f},{:.6f},{:.4f},{},{:.6f}"
+          ","
+          "{},{}\n",
           e.event, b.lo, b.hi, b.forecasts, b.mean_forecast, b.observed, b.interval_lo,
-          b.interval_hi, b.inside ? "true" : "false", e.brier, e.naive_brier, e.skill, r.family,
-          r.shape);
+          b.interval_hi, b.inside ? "true" : "false", e.brier, e.naive_brier, e.skill, e.chi_square,
+          e.df, e.p_value, r.family, r.shape);
     }
   }
   return s;
@@ -365,9 +394,10 @@ std::string write_backtest_json(const BacktestResult& r) {
       {"shape", r.shape.empty() ? nlohmann::json(nullptr) : nlohmann::json(r.shape)}};
   for (const EventScore& e : r.events) {
     nlohmann::json ej{
-        {"event", e.event},       {"forecasts", e.forecasts}, {"mean_forecast", e.mean_forecast},
-        {"observed", e.observed}, {"brier", e.brier},         {"naive_brier", e.naive_brier},
-        {"skill", e.skill}};
+        {"event", e.event},       {"forecasts", e.forecasts},   {"mean_forecast", e.mean_forecast},
+        {"observed", e.observed}, {"brier", e.brier},           {"naive_brier", e.naive_brier},
+        {"skill", e.skill},       {"chi_square", e.chi_square}, {"df", e.df},
+        {"p_value", e.p_value}};
     for (const ReliabilityBin& b : e.bins) {
       ej["bins"].push_back({{"lo", b.lo},
                             {"hi", b.hi},

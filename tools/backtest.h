@@ -42,6 +42,10 @@ struct EventScore {
   std::uint64_t forecasts = 0;
   double mean_forecast = 0, observed = 0;
   double brier = 0, naive_brier = 0, skill = 0;  // skill = 1 - brier / naive_brier
+  // One test of the whole table (calibration_test): the statistic, its degrees of freedom (the
+  // filled deciles) and the chance of a statistic at least as large if calibrated.
+  double chi_square = 0, p_value = 1;
+  int df = 0;
 };
 
 struct BacktestResult {
@@ -62,6 +66,18 @@ double brier_score(const std::vector<double>& forecast, const std::vector<int>& 
 // Ten bins of width 0.1 with the calibrated 95% interval of each (see ReliabilityBin).
 std::vector<ReliabilityBin> reliability_table(const std::vector<double>& forecast,
                                               const std::vector<int>& outcome);
+
+struct CalibrationTest {
+  double chi_square = 0, p_value = 1;
+  int df = 0;
+};
+// Sum over the filled deciles of (observed - expected count)^2 / sum p(1 - p), chi-square with
+// one degree of freedom per filled decile if the forecasts are calibrated and independent (the
+// test of Hosmer and Lemeshow 1980, Communications in Statistics A9(10) 1043-1069, with each
+// decile's variance from the forecasts themselves, so no degree of freedom is lost to a fit).
+// Deciles whose variance is 0 (all forecasts 0 or 1) are left out.
+CalibrationTest calibration_test(const std::vector<double>& forecast,
+                                 const std::vector<int>& outcome);
 
 std::string write_backtest_table(const BacktestResult& r);
 std::string write_backtest_csv(const BacktestResult& r);
