@@ -14,7 +14,6 @@
 #include "models/likelihood.h"
 #include "models/plain_fit.h"
 #include "models/ratings.h"
-#include "models/shrink_spread.h"
 
 namespace standfast::models {
 
@@ -26,7 +25,6 @@ struct RatingsFit {
   double info_per_side = 0.0;      // Fisher information about log(mean) of one average score
   double prior_precision = 0.0;    // shrink_games * info_per_side
   double shrink_games = 0.0;       // the prior weight used, in games (estimated when auto)
-  ShrinkSpread spread;             // the estimated shrinkage's uncertainty (auto only)
   std::vector<Side> sides;
 };
 

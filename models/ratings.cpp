@@ -131,8 +131,7 @@ RatingsFit fit_ratings_detail(const config::Season& season) {
   r.shrink_games = out.shrink_games;
   if (spec.shrink_auto && spec.strength_uncertainty) {
     // The estimated shrinkage's own uncertainty, one more draw per simulated season.
-    out.spread = shrink_spread(*out.mle);
-    add_shrink_spread(r.strengths, *out.mle, out.spread.sd_kept);
+    add_shrink_spread(r.strengths, *out.mle, shrink_spread(*out.mle).sd_kept);
   }
   return out;
 }

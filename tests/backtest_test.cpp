@@ -34,13 +34,13 @@ TEST_CASE("the calibration test over the table: chi-square on 2 df in closed for
   // Two filled deciles: bin 1 {0.15, 0.15} with one success, bin 9 {0.95} with one success.
   // Statistic by hand: (1 - 0.3)^2 / (2 * 0.1275) + (1 - 0.95)^2 / 0.0475 = 1.921569 +
   // 0.052632; chi-square with 2 df has survival exp(-x / 2) (closed form).
-  const CalibrationTest t = calibration_test({0.15, 0.15, 0.95}, {1, 0, 1});
+  const CalibrationTest t = calibration_test(reliability_table({0.15, 0.15, 0.95}, {1, 0, 1}));
   const double x = 0.49 / 0.255 + 0.0025 / 0.0475;
   CHECK(t.df == 2);
   CHECK(t.chi_square == Approx(x).epsilon(1e-12));
   CHECK(t.p_value == Approx(std::exp(-x / 2)).epsilon(1e-10));
   // Forecasts of exactly 0 or 1 carry no variance and no degree of freedom.
-  CHECK(calibration_test({0.0, 1.0}, {0, 1}).df == 0);
+  CHECK(calibration_test(reliability_table({0.0, 1.0}, {0, 1})).df == 0);
 }
 
 TEST_CASE("a reduced backtest: league invariants, determinism, bad options") {

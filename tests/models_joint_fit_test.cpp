@@ -66,6 +66,17 @@ SyntheticLeague small_league() {
 
 double rel(double a, double b) { return std::abs(a - b) / std::abs(b); }
 
+// One division of n clubs, `within` games per pair, log ratings with sd 0.1; the league of
+// repetition `rep` draws its offences, defences and scores from seeds base + rep, base + 1000 +
+// rep and base + 2000 + rep.
+SyntheticLeague generated_league(int n, int within, int base, int rep) {
+  SyntheticLeague l;
+  l.games_within = within;
+  l.log_offence = synthetic_log_ratings(n, 0.1, base + rep);
+  l.log_defence = synthetic_log_ratings(n, 0.1, base + 1000 + rep);
+  return l;
+}
+
 }  // namespace
 
 TEST_CASE("Weibull joint maximum agrees with an independent SciPy optimisation") {
@@ -178,10 +189,7 @@ TEST_CASE("95% intervals cover the truth in 93-97% of repetitions") {
   const double z = 1.959963984540054;
   int covered = 0, total = 0, shape_covered = 0, home_covered = 0;
   for (int rep = 0; rep < reps; ++rep) {
-    SyntheticLeague l;
-    l.games_within = 10;
-    l.log_offence = synthetic_log_ratings(n, 0.1, 1000 + rep);
-    l.log_defence = synthetic_log_ratings(n, 0.1, 2000 + rep);
+    const SyntheticLeague l = generated_league(n, 10, 1000, rep);
     const auto sides = synthetic_sides(l, 3000 + rep);
     const JointFit f = fit_joint(sides, n, JointOptions{});
     for (int i = 0; i < n; ++i) {
@@ -213,10 +221,7 @@ TEST_CASE("the adjusted shape removes the small-sample bias of the plain maximum
   const int n = 10, reps = 200;
   double plain_sum = 0.0, adj_sum = 0.0, adj_sq = 0.0;
   for (int rep = 0; rep < reps; ++rep) {
-    SyntheticLeague l;
-    l.games_within = 2;
-    l.log_offence = synthetic_log_ratings(n, 0.1, 5000 + rep);
-    l.log_defence = synthetic_log_ratings(n, 0.1, 6000 + rep);
+    const SyntheticLeague l = generated_league(n, 2, 5000, rep);
     const auto sides = synthetic_sides(l, 7000 + rep);
     JointOptions o;
     o.covariance = false;
@@ -254,10 +259,7 @@ TEST_CASE("games settled in extra innings enter as a tie after regulation") {
     double se(int k) const { return std::sqrt((sq / k - mean(k) * mean(k)) / (k - 1)); }
   } naive_home, tie_home, tie_mean, tie_shape;
   for (int rep = 0; rep < reps; ++rep) {
-    SyntheticLeague l;
-    l.games_within = 10;
-    l.log_offence = synthetic_log_ratings(n, 0.1, 8000 + rep);
-    l.log_defence = synthetic_log_ratings(n, 0.1, 9000 + rep);
+    const SyntheticLeague l = generated_league(n, 10, 8000, rep);
     const auto exact = synthetic_sides(l, 10000 + rep);
     auto sides = exact, flagged = exact;
     for (std::size_t i = 0; i + 1 < sides.size(); i += 2) {

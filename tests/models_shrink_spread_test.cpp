@@ -66,7 +66,9 @@ TEST_CASE("posterior mean and sd of the share kept, against Gauss-Kronrod quadra
   // The 2,000-point midpoint rule against the adaptive quadrature: relative 1e-4.
   CHECK(s.mean_kept == Approx(m1).epsilon(1e-4));
   CHECK(s.sd_kept == Approx(std::sqrt(m2 - m1 * m1)).epsilon(1e-4));
-  CHECK(s.sd_kept > 0.05);  // 8 ratings say little about tau
+  // Ref: the quadrature above gives 0.2568; 8 ratings say little about tau, so the spread is
+  // far from negligible.
+  CHECK(s.sd_kept > 0.2);
 }
 
 TEST_CASE("the added direction raises the covariance by sd^2 theta theta^T and nothing else") {

@@ -204,6 +204,7 @@ std::vector<ReliabilityBin> reliability_table(const std::vector<double>& forecas
     const double n = static_cast<double>(r.forecasts);
     r.mean_forecast = sum_p[b] / n;
     r.observed = sum_o[b] / n;
+    r.variance = sum_var[b];
     const double half = Z95 * std::sqrt(sum_var[b]) / n;
     r.interval_lo = std::max(0.0, r.mean_forecast - half);
     r.interval_hi = std::min(1.0, r.mean_forecast + half);
@@ -212,19 +213,13 @@ std::vector<ReliabilityBin> reliability_table(const std::vector<double>& forecas
   return bins;
 }
 
-CalibrationTest calibration_test(const std::vector<double>& forecast,
-                                 const std::vector<int>& outcome) {
-  std::vector<double> expected(10, 0.0), observed(10, 0.0), var(10, 0.0);
-  for (std::size_t i = 0; i < forecast.size(); ++i) {
-    const int b = std::clamp(static_cast<int>(std::floor(forecast[i] * 10.0)), 0, 9);
-    expected[b] += forecast[i];
-    observed[b] += outcome[i];
-    var[b] += forecast[i] * (1.0 - forecast[i]);
-  }
+CalibrationTest calibration_test(const std::vector<ReliabilityBin>& bins) {
   CalibrationTest t;
-  for (int b = 0; b < 10; ++b) {
-    if (!(var[b] > 0.0)) continue;
-    t.chi_square += (observed[b] - expected[b]) * (observed[b] - expected[b]) / var[b];
+  for (const ReliabilityBin& b : bins) {
+    if (!(b.variance > 0.0)) continue;
+    const double n = static_cast<double>(b.forecasts);
+    const double gap = n * (b.observed - b.mean_forecast);
+    t.chi_square += gap * gap / b.variance;
     ++t.df;
   }
   if (t.df > 0)
@@ -318,10 +313,7 @@ BacktestResult run_backtest(const BacktestOptions& o) {
     s.brier = brier_score(forecast[e], outcome[e]);
     s.naive_brier = brier_score(naive[e], outcome[e]);
     s.skill = s.naive_brier > 0 ? 1.0 - s.brier / s.naive_brier : 0.0;
-    const CalibrationTest c = calibration_test(forecast[e], outcome[e]);
-    s.chi_square = c.chi_square;
-    s.df = c.df;
-    s.p_value = c.p_value;
+    s.calibration = calibration_test(s.bins);
     res.events.push_back(s);
   }
   return res;
@@ -345,7 +337,7 @@ std::string write_backtest_table(const BacktestResult& r) {
         "forecasts, mean {:.4f}, observed {:.4f}\n  calibration over the table: chi-square "
         "{:.2f} on {} df, p = {:.3f}\n",
         e.event, e.brier, e.naive_brier, e.skill, group_digits(e.forecasts), e.mean_forecast,
-        e.observed, e.chi_square, e.df, e.p_value);
+        e.observed, e.calibration.chi_square, e.calibration.df, e.calibration.p_value);
     s += fmt::format("  {:<9} {:>7} {:>9} {:>9}  {:<15} {}\n", "forecast", "count", "mean",
                      "observed", "95% if calibrated", "");
     for (const ReliabilityBin& b : e.bins) {
@@ -365,12 +357,11 @@ std::string write_backtest_csv(const BacktestResult& r) {
   for (const EventScore& e : r.events) {
     for (const ReliabilityBin& b : e.bins) {
       s += fmt::format(
-          "{},{:.1f},{:.1f},{},{:.6f},{:.6f},{:.6f},{:.6f},{},{:.6f},{:.6f},{:.6f},{:.4f},{},{:.6f}"
-          ","
-          "{},{}\n",
+          "{},{:.1f},{:.1f},{},{:.6f},{:.6f},{:.6f},{:.6f},{},{:.6f},{:.6f},{:.6f},"
+          "{:.4f},{},{:.6f},{},{}\n",
           e.event, b.lo, b.hi, b.forecasts, b.mean_forecast, b.observed, b.interval_lo,
-          b.interval_hi, b.inside ? "true" : "false", e.brier, e.naive_brier, e.skill, e.chi_square,
-          e.df, e.p_value, r.family, r.shape);
+          b.interval_hi, b.inside ? "true" : "false", e.brier, e.naive_brier, e.skill,
+          e.calibration.chi_square, e.calibration.df, e.calibration.p_value, r.family, r.shape);
     }
   }
   return s;
@@ -393,11 +384,16 @@ std::string write_backtest_json(const BacktestResult& r) {
       {"family", r.family},
       {"shape", r.shape.empty() ? nlohmann::json(nullptr) : nlohmann::json(r.shape)}};
   for (const EventScore& e : r.events) {
-    nlohmann::json ej{
-        {"event", e.event},       {"forecasts", e.forecasts},   {"mean_forecast", e.mean_forecast},
-        {"observed", e.observed}, {"brier", e.brier},           {"naive_brier", e.naive_brier},
-        {"skill", e.skill},       {"chi_square", e.chi_square}, {"df", e.df},
-        {"p_value", e.p_value}};
+    nlohmann::json ej{{"event", e.event},
+                      {"forecasts", e.forecasts},
+                      {"mean_forecast", e.mean_forecast},
+                      {"observed", e.observed},
+                      {"brier", e.brier},
+                      {"naive_brier", e.naive_brier},
+                      {"skill", e.skill},
+                      {"chi_square", e.calibration.chi_square},
+                      {"df", e.calibration.df},
+                      {"p_value", e.calibration.p_value}};
     for (const ReliabilityBin& b : e.bins) {
       ej["bins"].push_back({{"lo", b.lo},
                             {"hi", b.hi},

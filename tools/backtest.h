@@ -34,6 +34,14 @@ struct ReliabilityBin {
   // +- 1.959964 sqrt(sum p (1 - p)) / count (forecasts treated as independent).
   double interval_lo = 0, interval_hi = 0;
   bool inside = true;
+  double variance = 0;  // sum p (1 - p) over the bin's forecasts
+};
+
+// One test of a whole reliability table: the statistic, its degrees of freedom (the deciles
+// that count) and the chance of a statistic at least as large if the forecasts are calibrated.
+struct CalibrationTest {
+  double chi_square = 0, p_value = 1;
+  int df = 0;
 };
 
 struct EventScore {
@@ -42,10 +50,7 @@ struct EventScore {
   std::uint64_t forecasts = 0;
   double mean_forecast = 0, observed = 0;
   double brier = 0, naive_brier = 0, skill = 0;  // skill = 1 - brier / naive_brier
-  // One test of the whole table (calibration_test): the statistic, its degrees of freedom (the
-  // filled deciles) and the chance of a statistic at least as large if calibrated.
-  double chi_square = 0, p_value = 1;
-  int df = 0;
+  CalibrationTest calibration;                   // of the whole table (calibration_test)
 };
 
 struct BacktestResult {
@@ -67,17 +72,12 @@ double brier_score(const std::vector<double>& forecast, const std::vector<int>& 
 std::vector<ReliabilityBin> reliability_table(const std::vector<double>& forecast,
                                               const std::vector<int>& outcome);
 
-struct CalibrationTest {
-  double chi_square = 0, p_value = 1;
-  int df = 0;
-};
-// Sum over the filled deciles of (observed - expected count)^2 / sum p(1 - p), chi-square with
-// one degree of freedom per filled decile if the forecasts are calibrated and independent (the
-// test of Hosmer and Lemeshow 1980, Communications in Statistics A9(10) 1043-1069, with each
-// decile's variance from the forecasts themselves, so no degree of freedom is lost to a fit).
-// Deciles whose variance is 0 (all forecasts 0 or 1) are left out.
-CalibrationTest calibration_test(const std::vector<double>& forecast,
-                                 const std::vector<int>& outcome);
+// Sum over the deciles of (observed - expected count)^2 / sum p(1 - p), chi-square with one
+// degree of freedom per decile if the forecasts are calibrated and independent (the test of
+// Hosmer and Lemeshow 1980, Communications in Statistics A9(10) 1043-1069, with each decile's
+// variance from the forecasts themselves, so no degree of freedom is lost to a fit). Deciles
+// whose variance is 0 (empty, or all forecasts 0 or 1) are left out.
+CalibrationTest calibration_test(const std::vector<ReliabilityBin>& bins);
 
 std::string write_backtest_table(const BacktestResult& r);
 std::string write_backtest_csv(const BacktestResult& r);
